@@ -1,0 +1,187 @@
+"""The one unit registry of the project and the conversion of user input to SI.
+
+Both packages (``fluids_props`` and ``similitude``) and their users share pint's application
+registry, so a Quantity made by a user with ``pint.get_application_registry()`` or with
+``similitude.units.ureg`` is accepted everywhere and results can be combined freely.
+
+Inside the correlations everything is a plain SI float or numpy array; this module is the edge
+where strings ("15 degC", "59 degF", "35 g/kg", "2 bar") and Quantities become SI numbers.
+"""
+
+from __future__ import annotations
+
+import re
+from typing import Any
+
+import numpy as np
+import pint
+
+ureg = pint.get_application_registry()
+Q_ = ureg.Quantity
+
+#: SI unit, per pint dimensionality, used for the inside of the packages.
+SI_UNITS: dict[str, str] = {
+    "[temperature]": "K",
+    "[length]": "m",
+    "[mass]": "kg",
+    "[time]": "s",
+    "[mass] / [length] / [time] ** 2": "Pa",
+    "[mass] / [length] ** 3": "kg/m^3",
+    "[length] / [time]": "m/s",
+    "[length] ** 2 / [time]": "m^2/s",
+    "[mass] / [length] / [time]": "Pa*s",
+    "[mass] / [time] ** 2": "N/m",
+    "[length] / [time] ** 2": "m/s^2",
+    "[length] ** 2": "m^2",
+    "[length] ** 3": "m^3",
+    "[mass] * [length] / [time] ** 2": "N",
+    "[mass] * [length] ** 2 / [time] ** 3": "W",
+    "[mass] * [length] ** 2 / [time] ** 2": "J",
+    "1 / [time]": "1/s",
+    "dimensionless": "",
+}
+
+_NUMBER_UNIT = re.compile(
+    r"^\s*(?P<num>[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(?P<unit>.*?)\s*$"
+)
+
+
+class UnitInputError(ValueError):
+    """A value could not be read as a quantity of the expected dimension."""
+
+
+def parse_quantity(value: Any, name: str = "value") -> pint.Quantity:
+    """Turn a user value into a Quantity of the shared registry.
+
+    Parameters
+    ----------
+    value : str, pint.Quantity, number or array
+        ``"15 degC"``, ``"2 bar"``, ``"35 g/kg"``, a Quantity from any pint registry, or a bare
+        number (dimensionless).
+    name : str
+        Name of the field, used in error messages.
+
+    Returns
+    -------
+    pint.Quantity
+        A Quantity of :data:`ureg`.
+
+    Notes
+    -----
+    pint's plain string parser reads ``"15 degC"`` as a product and refuses the offset unit;
+    here a leading number is split from its unit, so offset units parse as users expect.
+    """
+    if isinstance(value, pint.Quantity):
+        if value._REGISTRY is ureg.get():
+            return value
+        # A Quantity of another registry: rebuild it here through its unit name.
+        return Q_(value.magnitude, str(value.units))
+    if isinstance(value, str):
+        text = value.strip()
+        match = _NUMBER_UNIT.match(text)
+        try:
+            if match:
+                unit = match.group("unit") or "dimensionless"
+                return Q_(float(match.group("num")), unit)
+            return Q_(text)
+        except (pint.errors.PintError, AttributeError, TypeError, ValueError, SyntaxError) as exc:
+            raise UnitInputError(
+                f"{name}: cannot read {value!r} as a quantity ({exc.__class__.__name__}); "
+                "expected a number and a unit such as '15 degC' or '2 bar'"
+            ) from None
+    if isinstance(value, (list, tuple)):
+        if value and all(isinstance(v, (str, pint.Quantity)) for v in value):
+            parts = [parse_quantity(v, name) for v in value]
+            unit = parts[0].units
+            return Q_(np.array([p.to(unit).magnitude for p in parts]), unit)
+        value = np.asarray(value, dtype=float)
+    if isinstance(value, (int, float, np.integer, np.floating, np.ndarray)):
+        return Q_(value, "dimensionless")
+    raise UnitInputError(
+        f"{name}: cannot read {value!r} (type {type(value).__name__}) as a quantity; "
+        "expected a string such as '15 degC', a pint Quantity or a number"
+    )
+
+
+def to_si(value: Any, dimension: str, name: str = "value") -> float | np.ndarray:
+    """Convert a user value to SI magnitude after checking its dimension.
+
+    Parameters
+    ----------
+    value : str, pint.Quantity, number or array
+        The user value. A bare number is refused unless ``dimension`` is ``"dimensionless"``.
+    dimension : str
+        pint dimensionality string, e.g. ``"[temperature]"``, ``"[length] / [time]"``, or a
+        unit whose dimension is wanted, e.g. ``"Pa"``.
+    name : str
+        Field name for the error message.
+
+    Returns
+    -------
+    float or numpy.ndarray
+        Magnitude in the SI unit of that dimension (temperatures in kelvin).
+
+    Raises
+    ------
+    UnitInputError
+        If the value cannot be parsed or has another dimension.
+    """
+    dim = _dimensionality(dimension)
+    q = parse_quantity(value, name)
+    if q.dimensionality != dim:
+        got = "dimensionless" if q.dimensionless else str(q.dimensionality)
+        if q.dimensionless and not isinstance(value, (str, pint.Quantity)):
+            got = "a bare number"
+        raise UnitInputError(
+            f"{name}: {value!r} has dimension {got}; expected {dim_text(dim)}"
+            f" (e.g. {example_unit(dim)})"
+        )
+    unit = SI_UNITS.get(str(dim)) if str(dim) != "dimensionless" else ""
+    if unit is None:
+        mag = q.to_base_units().magnitude
+    elif unit == "":
+        mag = q.to("dimensionless").magnitude
+    else:
+        mag = q.to(unit).magnitude
+    if isinstance(mag, np.ndarray):
+        return mag.astype(float)
+    return float(mag)
+
+
+def _dimensionality(dimension: str):
+    if dimension.startswith("[") or dimension == "dimensionless" or "[" in dimension:
+        if dimension == "dimensionless":
+            return Q_(1.0, "dimensionless").dimensionality
+        return ureg.get_dimensionality(dimension)
+    return Q_(1.0, dimension).dimensionality
+
+
+def dim_text(dim) -> str:
+    """Readable text of a pint dimensionality."""
+    text = str(dim)
+    return "dimensionless" if text == "dimensionless" else text
+
+
+_EXAMPLES = {
+    "[temperature]": "'15 degC'",
+    "[length]": "'3.2 m'",
+    "[length] / [time]": "'2.5 m/s' or '18 kn'",
+    "[mass] / [length] / [time] ** 2": "'101325 Pa' or '2 bar'",
+    "[mass] / [length] ** 3": "'1000 kg/m^3'",
+    "[length] ** 2 / [time]": "'1.1e-6 m^2/s'",
+    "[mass] / [length] / [time]": "'1e-3 Pa*s'",
+    "[length] ** 2": "'12 m^2'",
+    "1 / [time]": "'10 Hz' or '600 rpm'",
+    "dimensionless": "'0.035' or '35 g/kg'",
+    "[time]": "'3 s'",
+}
+
+
+def example_unit(dim) -> str:
+    """An example of a well-formed value of this dimension, for error messages."""
+    return _EXAMPLES.get(str(dim), f"a value in {SI_UNITS.get(str(dim), 'SI units')}")
+
+
+def si_quantity(magnitude: Any, unit: str) -> pint.Quantity:
+    """Wrap an SI magnitude (float or array) as a Quantity of the shared registry."""
+    return Q_(magnitude, unit)

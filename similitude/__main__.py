@@ -1,0 +1,5 @@
+"""``python -m similitude`` runs the command line."""
+
+from similitude.cli import main
+
+raise SystemExit(main())

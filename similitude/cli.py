@@ -1,0 +1,72 @@
+"""Command line: ``similitude <command> ...`` (also ``python -m similitude``).
+
+Each command lives in ``similitude/commands/<name>.py`` with ``add_parser(subparsers)`` and
+``run(args) -> int``. Exit codes: 0 success, 2 bad input (one line per problem on stderr, never a
+traceback), 1 anything else.
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import sys
+
+from similitude.errors import BAD_INPUT_ERRORS, InputError
+
+COMMANDS = ("plan", "props", "groups", "balance", "extrapolate")
+
+CAUTION = (
+    "Estimates only: check validity ranges, and defer to the ITTC recommended procedures, "
+    "class rules, local codes and licensed practice."
+)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="similitude",
+        description="Plan scale-model tests: fluid properties, dimensionless groups, model "
+        "scale and speed, facility checks, run-matrix workbook, extrapolation to full scale.",
+        epilog=CAUTION,
+    )
+    parser.add_argument("--debug", action="store_true", help="show tracebacks of failures")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    for name in COMMANDS:
+        try:
+            module = importlib.import_module(f"similitude.commands.{name}")
+        except ModuleNotFoundError as exc:
+            if exc.name == f"similitude.commands.{name}":
+                continue  # command not built yet
+            raise
+        module.add_parser(sub)
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    """Run the command line; returns the exit code."""
+    parser = build_parser()
+    try:
+        args = parser.parse_args(argv)
+    except SystemExit as exc:  # argparse: --help (0) or usage error (2)
+        return int(exc.code or 0)
+    if not getattr(args, "command", None):
+        parser.print_help()
+        return 2
+    try:
+        return int(args.func(args) or 0)
+    except BAD_INPUT_ERRORS as exc:
+        problems = exc.problems if isinstance(exc, InputError) else [str(exc)]
+        for line in problems:
+            print(f"error: {line}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        print("error: interrupted", file=sys.stderr)
+        return 1
+    except Exception as exc:  # anything else: one line, traceback only on request
+        if getattr(args, "debug", False):
+            raise
+        print(f"error: {exc.__class__.__name__}: {exc}", file=sys.stderr)
+        return 1
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

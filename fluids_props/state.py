@@ -90,17 +90,20 @@ class FluidState:
     @property
     def vapour_pressure(self):
         """Saturation vapour pressure as a Quantity [Pa], or None."""
-        return None if self.vapour_pressure_si is None else si_quantity(self.vapour_pressure_si, "Pa")
+        v = self.vapour_pressure_si
+        return None if v is None else si_quantity(v, "Pa")
 
     @property
     def surface_tension(self):
         """Surface tension as a Quantity [N/m], or None."""
-        return None if self.surface_tension_si is None else si_quantity(self.surface_tension_si, "N/m")
+        v = self.surface_tension_si
+        return None if v is None else si_quantity(v, "N/m")
 
     @property
     def speed_of_sound(self):
         """Speed of sound as a Quantity [m/s], or None."""
-        return None if self.speed_of_sound_si is None else si_quantity(self.speed_of_sound_si, "m/s")
+        v = self.speed_of_sound_si
+        return None if v is None else si_quantity(v, "m/s")
 
     def as_dict(self) -> dict[str, Any]:
         """Properties as a flat ``{'name [unit]': SI value}`` mapping, for tables."""

@@ -10,8 +10,8 @@ import re
 from typing import Any
 
 from fluids_props.units import (
-    SI_UNITS,
     Q_,
+    SI_UNITS,
     UnitInputError,
     example_unit,
     parse_quantity,

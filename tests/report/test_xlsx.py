@@ -1,0 +1,247 @@
+"""The test-plan workbook (similitude.report.xlsx): sheets, formats, safety of the write."""
+
+import re
+import zipfile
+
+import numpy as np
+import openpyxl
+import pytest
+
+import similitude as sim
+from similitude.case import Case, FluidSpec, MatchRequest, MatrixSpec, Prototype, WaveCondition
+from similitude.errors import InputError
+from similitude.facilities import Facility
+from similitude.report import xlsx
+
+
+def _tank_case(**matrix):
+    fac = Facility("towing_tank", "test tank (invented)", 200.0, 7.0, 4.0, (0.1, 8.0),
+                   acceleration=0.5)
+    proto = Prototype("surface_ship", 100.0, (5.0, 7.0, 9.0), FluidSpec("sea_water", 288.15),
+                      dimensions={"midship_area": 60.0, "wetted_surface": 2500.0})
+    spec = MatrixSpec(waves=(WaveCondition("regular", period=8.0, steepness=1 / 50),),
+                      repeats=2, **matrix)
+    return Case(proto, fac, request=MatchRequest(scale=25.0), matrix=spec,
+                metadata={"project": "invented test case"}, name="tank case")
+
+
+@pytest.fixture(scope="module")
+def plan():
+    return sim.plan(_tank_case())
+
+
+@pytest.fixture(scope="module")
+def written(plan, tmp_path_factory):
+    path = tmp_path_factory.mktemp("wb") / "plan.xlsx"
+    out = xlsx.write_plan(plan, path)
+    return out, openpyxl.load_workbook(out)
+
+
+def test_write_plan_returns_the_path_it_wrote(written, tmp_path_factory):
+    path, _ = written
+    assert path.name == "plan.xlsx" and path.is_file()
+
+
+def test_workbook_has_all_sheets(written):
+    _, wb = written
+    for name in xlsx.SHEET_NAMES:
+        assert name in wb.sheetnames
+
+
+def test_overview_states_scale_binding_constraint_and_cautions(written, plan):
+    _, wb = written
+    ws = wb["Overview"]
+    values = {ws.cell(row=r, column=1).value: ws.cell(row=r, column=2).value
+              for r in range(1, ws.max_row + 1)}
+    assert values["scale"] == "1:25"
+    assert values["binding constraint"] == plan.binding_constraint
+    assert values["runs [-]"] == len(plan.matrix)
+    caution = values["cautions"]
+    for words in ("estimates", "validity ranges", "ITTC", "class rules", "local codes",
+                  "licensed practice"):
+        assert words in caution
+
+
+def test_runs_sheet_holds_the_whole_matrix(written, plan):
+    _, wb = written
+    ws = wb["Runs"]
+    m = plan.matrix
+    assert [c.value for c in ws[1]] == list(m.columns)
+    assert ws.max_row == len(m) + 1
+    col = list(m.columns).index("model speed [m/s]") + 1
+    got = [ws.cell(row=r, column=col).value for r in range(2, len(m) + 2)]
+    np.testing.assert_allclose(got, m["model speed [m/s]"], rtol=1e-15)
+    col = list(m.columns).index("loading") + 1
+    assert ws.cell(row=2, column=col).value == m["loading"].iloc[0]
+
+
+def test_runs_sheet_has_frozen_header_filter_and_fitted_formats(written, plan):
+    _, wb = written
+    ws = wb["Runs"]
+    assert ws.freeze_panes == "B2"
+    n = len(plan.matrix.columns)
+    assert ws.auto_filter.ref == f"A1:{openpyxl.utils.get_column_letter(n)}{len(plan.matrix) + 1}"
+    heads = [c.value for c in ws[1]]
+    re_col = heads.index("model Reynolds number [-]") + 1
+    assert "E+" in ws.cell(row=2, column=re_col).number_format
+    kn_col = heads.index("prototype speed [kn]") + 1
+    assert ws.cell(row=2, column=kn_col).number_format == "0.00"
+    for j in range(1, n + 1):
+        assert ws.column_dimensions[openpyxl.utils.get_column_letter(j)].width >= 10
+
+
+def test_every_run_header_carries_a_unit(written):
+    _, wb = written
+    ids = {"run", "repeat", "loading", "speed index", "spectrum", "wave", "wave kind",
+           "run feasible"}
+    for h in (c.value for c in wb["Runs"][1]):
+        assert h in ids or re.search(r"\[[^\]]*\]$", h), h
+
+
+def test_similarity_sheet_lists_groups_and_conflicts(written, plan):
+    _, wb = written
+    ws = wb["Similarity"]
+    assert [c.value for c in ws[1]][:len(plan.groups.columns)] == list(plan.groups.columns)
+    texts = [ws.cell(row=r, column=1).value for r in range(1, ws.max_row + 1)]
+    assert "Unmatched groups at the design speed (conflicts)" in texts
+    for c in plan.conflicts:
+        assert c.group in texts
+
+
+def test_checks_sheet_shows_margins(written, plan):
+    _, wb = written
+    ws = wb["Facility checks"]
+    heads = [c.value for c in ws[1]]
+    mcol = heads.index("margin [-]") + 1
+    for i, c in enumerate(plan.checks):
+        got = ws.cell(row=2 + i, column=mcol).value
+        if np.isfinite(c.margin):
+            assert got == pytest.approx(c.margin)
+    assert ws.cell(row=2, column=mcol).number_format == "0.0%"
+
+
+def test_scaling_sheet_has_factors_and_a_live_worked_example(written, plan):
+    _, wb = written
+    ws = wb["Scaling"]
+    heads = [c.value for c in ws[1]]
+    fcol = heads.index("factor (prototype/model)") + 1
+    ex = heads.index("worked example: model value") + 1
+    # the length factor is lambda (Froude scale factors, published facts sec. 0)
+    assert ws.cell(row=2, column=fcol).value == pytest.approx(25.0)
+    formula = ws.cell(row=2, column=ex + 1).value
+    assert formula.startswith("=") and "*" in formula
+
+
+def test_fluids_sheet_lists_both_fluids(written, plan):
+    _, wb = written
+    ws = wb["Fluids"]
+    assert ws.cell(row=1, column=2).value == f"prototype: {plan.prototype_fluid.fluid}"
+    rows = {ws.cell(row=r, column=1).value: ws.cell(row=r, column=3).value
+            for r in range(2, ws.max_row + 1)}
+    assert rows["density [kg/m^3]"] == pytest.approx(float(plan.model_fluid.density_si))
+
+
+def test_test_day_sheet_has_one_input_and_live_formulas(written, plan):
+    _, wb = written
+    ws = wb[xlsx.TEST_DAY_SHEET]
+    t = float(plan.model_fluid.temperature_si) - 273.15
+    assert ws[xlsx.TEMPERATURE_CELL].value == pytest.approx(t)
+    for ref in (xlsx.KELVIN_CELL, xlsx.DENSITY_CELL, xlsx.VISCOSITY_CELL,
+                xlsx.KINEMATIC_CELL):
+        assert str(ws[ref].value).startswith("=")
+    first = xlsx.TEST_DAY_HEADER_ROW + 1
+    assert str(ws[f"C{first}"].value).startswith("=")
+    assert "LOG10" in str(ws[f"D{first}"].value)
+    assert ws.freeze_panes == f"A{first}"
+    assert "TestDayTemperature" in wb.defined_names
+
+
+def test_workbook_contains_native_charts(written):
+    path, _ = written
+    with zipfile.ZipFile(path) as z:
+        charts = [n for n in z.namelist() if n.startswith("xl/charts/chart")]
+    assert len(charts) >= 1
+
+
+def test_existing_file_is_not_overwritten(plan, tmp_path):
+    path = tmp_path / "keep.xlsx"
+    path.write_bytes(b"precious")
+    with pytest.raises(InputError) as err:
+        xlsx.write_plan(plan, path)
+    assert isinstance(err.value, FileExistsError)
+    assert str(path) in str(err.value) and "--force" in str(err.value)
+    assert "\n" not in str(err.value)
+    assert path.read_bytes() == b"precious"
+
+
+def test_overwrite_replaces_an_existing_file(plan, tmp_path):
+    path = tmp_path / "old.xlsx"
+    path.write_bytes(b"old")
+    xlsx.write_plan(plan, path, overwrite=True)
+    assert zipfile.is_zipfile(path)
+
+
+def test_plan_to_excel_uses_the_writer(plan, tmp_path):
+    out = plan.to_excel(tmp_path / "via_plan.xlsx")
+    assert openpyxl.load_workbook(out).sheetnames[:2] == ["Overview", "Similarity"]
+
+
+def test_interrupted_write_leaves_no_partial_file(plan, tmp_path, monkeypatch):
+    # interrupted while openpyxl saves
+    path = tmp_path / "interrupted.xlsx"
+
+    def broken_save(self, filename):
+        with open(filename, "wb") as fh:
+            fh.write(b"PK\x03\x04 half a workbook")
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(openpyxl.Workbook, "save", broken_save)
+    with pytest.raises(KeyboardInterrupt):
+        xlsx.write_plan(plan, path)
+    assert not path.exists()
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_write_interrupted_while_completing_the_long_tables_leaves_no_file(plan, tmp_path,
+                                                                           monkeypatch):
+    path = tmp_path / "interrupted2.xlsx"
+
+    def broken_rows(table):
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(xlsx, "_rows_xml", broken_rows)
+    with pytest.raises(KeyboardInterrupt):
+        xlsx.write_plan(plan, path)
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_missing_output_directory_is_an_input_error(plan, tmp_path):
+    with pytest.raises(InputError, match="does not exist"):
+        xlsx.write_plan(plan, tmp_path / "no" / "such" / "dir.xlsx")
+
+
+def test_a_ten_thousand_run_matrix_is_written_completely(tmp_path):
+    speeds = tuple(np.linspace(0.5, 8.0, 100))
+    waves = tuple(WaveCondition("regular", period=p, height=1.0) for p in (6.0, 8.0, 10.0,
+                                                                          12.0, 14.0))
+    case = _tank_case(speeds=speeds, headings=(180.0, 150.0, 120.0, 90.0))
+    case = Case(case.prototype, case.facility, case.request,
+                MatrixSpec(speeds=speeds, headings=(180.0, 150.0, 120.0, 90.0, 0.0),
+                           waves=waves, repeats=4), case.metadata, case.name)
+    p = sim.plan(case)
+    assert len(p.matrix) == 10_000
+    out = xlsx.write_plan(p, tmp_path / "big.xlsx")
+    with zipfile.ZipFile(out) as z:
+        wb_xml = z.read("xl/workbook.xml").decode()
+        names = re.findall(r'<sheet [^>]*name="([^"]+)"', wb_xml)
+        runs = z.read(f"xl/worksheets/sheet{names.index('Runs') + 1}.xml").decode()
+    assert runs.count("<row ") == 10_001
+    assert re.search(r'<dimension ref="A1:[A-Z]+10001"/>', runs)
+
+
+def test_number_format_follows_the_quantity():
+    assert xlsx.number_format("model Reynolds number [-]") == "0.0000E+00"
+    assert xlsx.number_format("run") == "0"
+    assert xlsx.number_format("prototype speed [kn]") == "0.00"
+    assert xlsx.number_format("model speed [m/s]", np.array([1.2, 3.4])) == "0.000"
+    assert xlsx.number_format("run distance [m]", np.array([150.0, 190.0])) == "0.0"

@@ -37,6 +37,25 @@ MATCHABLE_GROUPS = (
 
 OBJECTIVES = ("largest_model", "least_mismatch", "smallest_model")
 
+#: Dimension keys of :class:`Prototype` that are areas [m^2] or volumes [m^3]; every other key
+#: is a length [m]. Under geometric similarity they scale as lambda^2 and lambda^3.
+AREA_KEYS = ("wetted_surface", "midship_area", "frontal_area", "lateral_area",
+             "transverse_area", "bilge_keel_area", "waterplane_area", "disk_area")
+VOLUME_KEYS = ("displacement", "volume")
+
+
+def dimension_power(key: str) -> int:
+    """Power of the length scale in a dimension: 1 for lengths, 2 for areas, 3 for volumes.
+
+    Keys listed in :data:`AREA_KEYS` or ending in ``_area`` are areas; keys in
+    :data:`VOLUME_KEYS` or ending in ``_volume`` are volumes; all others are lengths.
+    """
+    if key in AREA_KEYS or key.endswith("_area"):
+        return 2
+    if key in VOLUME_KEYS or key.endswith("_volume"):
+        return 3
+    return 1
+
 
 def _positive(name: str, value: float | None, allow_none: bool = True) -> None:
     if value is None:
@@ -163,6 +182,15 @@ class MatchRequest:
         How to choose among feasible models: ``"largest_model"`` (default for free-surface
         tests: least Reynolds mismatch), ``"least_mismatch"`` (minimise the log-mismatch of the
         unmatched groups) or ``"smallest_model"``.
+    friction_line : str
+        Friction line for the Reynolds scale effect (:data:`similitude.friction.FRICTION_LINES`;
+        default the ITTC-1957 line).
+    form_factor : float or None
+        Form factor k of the 1978 ITTC method [-] when known (None: k = 0 in the estimates).
+    relax : bool
+        When the exact groups cannot all be met inside the facility, drop the lowest-priority
+        one (last in ``exact``), keep the others exact and minimise its log-mismatch instead;
+        the plan says so in its notes. False: raise InfeasibleError instead.
     """
 
     exact: tuple[str, ...] = ("froude",)
@@ -171,6 +199,9 @@ class MatchRequest:
     model_length: float | None = None
     model_fluid: FluidSpec | None = None
     objective: str = "largest_model"
+    friction_line: str = "ittc1957"
+    form_factor: float | None = None
+    relax: bool = True
 
     def __post_init__(self) -> None:
         for key, names in (("match.exact", self.exact), ("match.report", self.report)):
@@ -188,6 +219,18 @@ class MatchRequest:
             raise InputError(
                 "match.scale and match.model_length: both given; expected one of them"
             )
+        from similitude.friction import FRICTION_LINES
+
+        if self.friction_line not in FRICTION_LINES:
+            raise InputError(
+                f"match.friction_line: {self.friction_line!r} is unknown; expected one of "
+                + ", ".join(FRICTION_LINES)
+            )
+        if self.form_factor is not None and not (
+                isinstance(self.form_factor, (int, float)) and math.isfinite(self.form_factor)
+                and 0 <= self.form_factor < 2):
+            raise InputError(f"match.form_factor: {self.form_factor!r} is not valid; expected "
+                             "k between 0 and 2")
         if self.objective not in OBJECTIVES:
             raise InputError(
                 f"match.objective: {self.objective!r} is unknown; expected one of "

@@ -53,6 +53,10 @@ class Facility:
         Largest propeller dynamometer rotation rate [1/s].
     min_model_length, max_model_length : float or None
         Limits on model size the facility imposes (carriage, dynamometer, support) [m].
+    min_steady_time : float or None
+        Shortest steady-speed measuring time the facility requires per run [s]; when given,
+        the steady-run length after acceleration and stopping becomes a hard limit of the
+        planner; None: checked against a common-practice 10 s as a warning only.
     """
 
     kind: str
@@ -72,6 +76,7 @@ class Facility:
     max_rotation_rate: float | None = None
     min_model_length: float | None = None
     max_model_length: float | None = None
+    min_steady_time: float | None = None
 
     def __post_init__(self) -> None:
         if self.kind not in FACILITY_KINDS:
@@ -94,6 +99,16 @@ class Facility:
                     f"facility.{key}: {rng!r} is not valid; expected (min, max) with "
                     "0 <= min <= max and max > 0"
                 )
+        for key in ("acceleration", "deceleration", "wavemaker_max_height", "max_rotation_rate",
+                    "min_model_length", "max_model_length", "min_steady_time"):
+            v = getattr(self, key)
+            if v is not None and not (isinstance(v, (int, float)) and math.isfinite(v)
+                                      and v > 0):
+                raise InputError(f"facility.{key}: {v!r} is not valid; expected a positive "
+                                 "finite number or none")
+        if isinstance(self.fluids, str):
+            raise InputError(f"facility.fluids: {self.fluids!r} is a string; expected a list "
+                             "of fluid names")
         if not self.fluids:
             raise InputError("facility.fluids: empty; expected at least one fluid name")
 

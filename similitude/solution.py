@@ -26,7 +26,10 @@ class Solution:
     model_fluid : FluidState
         Model fluid at the chosen state (scalar).
     model_pressure : float or None
-        Static pressure at the model reference point [Pa] when the facility sets it (tunnels).
+        Static pressure at the model reference point [Pa] when the facility sets it (tunnels;
+        in a depressurised tank, the pressure over the free surface plus the scaled
+        hydrostatic head). ``extra["static_pressure"]`` holds the pressure the facility is
+        set to (test-section static pressure, or the pressure over the free surface).
     exact : tuple of str
         Groups matched exactly.
     binding : str
@@ -36,6 +39,10 @@ class Solution:
         The objective used to pick this solution.
     candidates_searched : int
         Number of (fluid, temperature, pressure, scale) candidates evaluated.
+    extra : dict
+        ``fluid`` (catalogue name), ``static_pressure`` [Pa], ``solved_by`` (the variable
+        through which the second exact group is met), and, when a requested exact group had
+        to be dropped, ``relaxed`` ((group, reason), ...) and ``request`` (the request solved).
     """
 
     scale: float

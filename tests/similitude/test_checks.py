@@ -1,0 +1,191 @@
+"""Facility checks: limits, their sources and what the plan reports about them.
+
+Invented facilities and models; each limit is derived in the comment beside its check.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from similitude import checks, solver
+from similitude.case import (
+    Case,
+    FluidSpec,
+    MatchRequest,
+    MatrixSpec,
+    Prototype,
+    WaveCondition,
+)
+from similitude.facilities import Facility
+from similitude.findings import Check
+
+G = 9.80665  # standard gravity [m/s^2]
+
+
+def ship(**kw):
+    base = dict(kind="surface_ship", length=150.0, speeds=(6.0, 8.0, 10.0),
+                fluid=FluidSpec("sea_water", 288.15),
+                dimensions={"beam": 24.0, "draught": 8.0, "midship_area": 190.0})
+    base.update(kw)
+    return Prototype(**base)
+
+
+def tank(**kw):
+    base = dict(kind="towing_tank", name="tank A", length=200.0, width=8.0, depth=4.0,
+                speed_range=(0.1, 6.0), acceleration=0.5)
+    base.update(kw)
+    return Facility(**base)
+
+
+def checks_of(case):
+    prob = solver.build_problem(case)
+    sol = solver.solve(case)
+    return {c.name: c for c in checks.facility_checks(prob, solver.candidate_at(prob, sol))}
+
+
+def test_kelvin_width_ratio_is_twice_the_tangent_of_19_47_degrees():
+    # Kelvin (1887): half-angle arcsin(1/3) = 19.47 deg; 2 tan(19.47 deg) = 1/sqrt(2) = 0.707.
+    assert math.degrees(checks.KELVIN_HALF_ANGLE) == pytest.approx(19.47, abs=0.005)
+    assert checks.KELVIN_WIDTH_RATIO == pytest.approx(1 / math.sqrt(2), rel=1e-12)
+
+
+def test_deep_water_depth_froude_limit_follows_from_h_over_2_75_v2_over_g():
+    # ITTC 7.5-04-01-01.1 / ISO 15016 (from memory): h > 2.75 V^2/g -> Fh < 0.603.
+    assert checks.DEEP_WATER_DEPTH_FROUDE == pytest.approx(0.603, abs=5e-4)
+
+
+def test_steady_run_length_subtracts_acceleration_stopping_and_model_length():
+    # 200 m tank, 2 m/s, a = 0.5, d = 0.25 m/s^2: 200 - 4/1 - 4/0.5 - 5 = 183 m.
+    fac = tank(deceleration=0.25)
+    assert checks.steady_run_length(fac, 5.0, 2.0) == pytest.approx(183.0)
+
+
+def test_check_margin_is_positive_inside_and_negative_outside():
+    inside = Check("x", 0.004, 0.005, "", "max", "ok", "common practice")
+    outside = Check("x", 0.006, 0.005, "", "max", "fail", "common practice")
+    assert inside.margin == pytest.approx(0.2)
+    assert outside.margin == pytest.approx(-0.2)
+
+
+def test_towing_tank_plan_reports_the_blockage_limit_at_its_value():
+    # Blockage binds (see test_solver): m = 0.005 exactly, margin 0.
+    c = checks_of(Case(ship(), tank()))["blockage ratio A_X/(B_T h)"]
+    assert c.value == pytest.approx(0.005, rel=1e-9)
+    assert c.limit == 0.005 and c.status == "ok"
+    assert c.source.startswith("common practice")
+
+
+def test_kelvin_check_compares_model_length_with_tank_width_over_0_71():
+    c = checks_of(Case(ship(), tank()))["model length vs tank width (Kelvin wedge)"]
+    assert c.limit == pytest.approx(8.0 * math.sqrt(2), rel=1e-12)
+    assert c.value == pytest.approx(150.0 / math.sqrt(190.0 / 0.16), rel=1e-9)
+
+
+def test_depth_froude_check_uses_the_tank_depth():
+    # V_m = 10/sqrt(34.46) = 1.704 m/s; Fh = 1.704/sqrt(g 4) = 0.272.
+    c = checks_of(Case(ship(), tank()))["depth Froude number V_m/sqrt(g h)"]
+    lam = math.sqrt(190.0 / 0.16)
+    assert c.value == pytest.approx(10.0 / math.sqrt(lam) / math.sqrt(G * 4.0), rel=1e-9)
+    assert "7.5-04-01-01.1" in c.source
+
+
+def test_low_model_reynolds_number_warns_with_stimulation_advice():
+    # A 1.5 m model (lambda = 100) at 6/10 m/s: Re_m = 0.6 * 1.5 / 1.3e-6 = 7e5 < 2e6.
+    c = checks_of(Case(ship(), tank(), MatchRequest(scale=100.0)))[
+        "model Reynolds number at the lowest speed"]
+    assert c.status == "warning"
+    assert "studs" in c.advice
+
+
+def test_short_model_waves_fail_the_capillary_period_limit():
+    # 4 s prototype waves at 1:200 -> T_m = 4/sqrt(200) = 0.28 s < 0.35 s (Hughes 1993).
+    spec = MatrixSpec(waves=(WaveCondition("regular", period=4.0, height=1.0, name="short"),))
+    case = Case(ship(), tank(width=20.0), MatchRequest(scale=200.0), spec)
+    c = checks_of(case)["short: model wave period"]
+    assert c.value == pytest.approx(4.0 / math.sqrt(200.0))
+    assert c.status == "warning"
+
+
+def test_wavemaker_height_of_an_irregular_sea_uses_1_86_hs():
+    # Longuet-Higgins (1952): largest of 1000 Rayleigh waves sqrt(ln 1000 / 2) H_s = 1.86 H_s;
+    # H_s = 6 m at 1:30 -> 0.2 m; 1.86 x 0.2 = 0.372 m > 0.3 m wavemaker limit.
+    spec = MatrixSpec(waves=(WaveCondition("irregular", significant_height=6.0,
+                                           peak_period=12.0, name="sea"),))
+    fac = tank(width=20.0, wavemaker_max_height=0.3, wavemaker_period_range=(0.5, 4.0))
+    found = checks_of(Case(ship(), fac, MatchRequest(scale=30.0), spec))
+    c = next(v for k, v in found.items() if k.startswith("sea: largest model wave"))
+    assert c.value == pytest.approx(0.2 * math.sqrt(math.log(1000) / 2), rel=1e-12)
+    assert c.status == "fail"
+
+
+def test_wind_tunnel_ship_model_uses_the_imo_5_percent_blockage_limit():
+    # IMO MSC.1/Circ.1200 §3.2.1: projected area < 5 % of the test section.
+    proto = Prototype("surface_ship", 200.0, (15.0,), FluidSpec("air", 288.15),
+                      dimensions={"lateral_area": 4000.0})
+    fac = Facility("wind_tunnel", "wt", 10.0, 4.0, 3.0, (5.0, 40.0), fluids=("air",),
+                   temperature_range=(288.15, 293.15))
+    case = Case(proto, fac, MatchRequest(exact=("mach",), scale=100.0))
+    prob = solver.build_problem(case)
+    sol = solver.solve(case)
+    lims = {lim.name: lim for lim in checks.hard_limits(prob, solver.candidate_at(prob, sol))}
+    lim = lims["tunnel blockage lateral area/test section"]
+    assert lim.limit == checks.IMO_TUNNEL_BLOCKAGE
+    assert float(lim.value[0]) == pytest.approx(4000.0 / 100.0**2 / 12.0, rel=1e-12)
+
+
+def test_wing_span_limit_is_0_8_of_the_tunnel_width():
+    # Barlow, Rae & Pope (1999), from memory: span <= 0.8 B.
+    assert checks.BARLOW_SPAN_RATIO == 0.8
+    assert checks.BARLOW_TUNNEL_BLOCKAGE == 0.075
+
+
+def test_mach_check_warns_above_0_3_when_mach_is_not_matched():
+    # Reynolds-only matching of a 1 m body at 50 m/s with a 1:4 model needs 200 m/s > Ma 0.3.
+    proto = Prototype("bluff_body", 1.0, (50.0,), FluidSpec("air", 288.15))
+    fac = Facility("wind_tunnel", "wt", 10.0, 4.0, 3.0, (5.0, 250.0), fluids=("air",),
+                   temperature_range=(288.15, 288.15))
+    found = checks_of(Case(proto, fac, MatchRequest(exact=("reynolds",), report=(),
+                                                    scale=4.0)))
+    c = found["model Mach number at the highest speed"]
+    assert c.value > 0.3 and c.status == "warning"
+
+
+def test_propeller_rotation_rate_limit_is_a_hard_limit():
+    proto = Prototype("propeller", 6.0, (8.0,), FluidSpec("sea_water", 288.15),
+                      dimensions={"diameter": 6.0}, rotation_rates=(1.8,), immersion=8.0)
+    fac = Facility("cavitation_tunnel", "cav", 3.0, 0.8, 0.8, (1.0, 12.0),
+                   fluids=("fresh_water",), max_rotation_rate=20.0)
+    case = Case(proto, fac, MatchRequest(exact=("froude", "advance_ratio"), report=(),
+                                         scale=15.0))
+    # Froude at 1:15: n_m = n_p sqrt(lambda) = 1.8 x 3.873 = 6.97 1/s (inside 20 1/s).
+    found = checks_of(case)
+    c = found["model rotation rate"]
+    assert c.value == pytest.approx(1.8 * math.sqrt(15.0), rel=1e-9)
+    assert c.status == "ok"
+
+
+def test_slow_small_model_waves_warn_for_capillarity():
+    # 1:400 model of 0.375 m at 6/sqrt(400) = 0.3 m/s: own wave length 2 pi 0.09/g = 5.8 cm;
+    # (1.71 cm / 5.8 cm)^2 = 8.7 % > 1 % (capillary length 2 pi sqrt(sigma/(rho g)),
+    # Lamb 1932 §267).
+    found = checks_of(Case(ship(), tank(), MatchRequest(scale=400.0)))
+    c = found["capillary share of the model's own waves at the lowest speed "
+              "(lambda_c/lambda_w)^2"]
+    lw = 2 * math.pi * (6.0 / 20.0) ** 2 / G
+    assert c.value == pytest.approx((0.0171 / lw) ** 2, rel=0.03)
+    assert c.status == "warning"
+
+
+def test_cavitation_tunnel_pressure_is_checked_against_its_range():
+    proto = Prototype("propeller", 6.0, (8.0,), FluidSpec("sea_water", 288.15),
+                      dimensions={"diameter": 6.0}, rotation_rates=(1.8,), immersion=8.0)
+    fac = Facility("cavitation_tunnel", "cav", 3.0, 0.8, 0.8, (1.0, 12.0),
+                   fluids=("fresh_water",), pressure_range=(5e3, 2e5))
+    found = checks_of(Case(proto, fac, MatchRequest(exact=("advance_ratio", "cavitation"),
+                                                    report=())))
+    hi = found["tunnel static pressure at the model vs facility maximum"]
+    lo = found["tunnel static pressure at the model vs facility minimum"]
+    assert hi.status == "ok" and lo.status == "ok"
+    assert hi.limit == 2e5 and lo.limit == 5e3

@@ -81,9 +81,9 @@ def add_parser(sub) -> argparse.ArgumentParser:
 def _plan_or_none(case, need_scale: bool):
     """The plan of the case, or None when the planner is not available and not needed."""
     try:
-        from similitude.plan import plan as make_plan
+        from similitude.planner import plan as make_plan
     except ModuleNotFoundError as exc:
-        if exc.name != "similitude.plan":
+        if exc.name != "similitude.planner":
             raise
         if need_scale:
             raise InputError("scale: the case fixes no scale and the planner is not "

@@ -219,7 +219,7 @@ def run(args) -> int:
                   "(pip install 'similitude[plot]'); nothing was written", file=sys.stderr)
             return 1
     case = load_case(args.case)
-    from similitude.plan import plan as make_plan
+    from similitude.planner import plan as make_plan
 
     plan = make_plan(case)
     # Build every text output before the first write, so a failure leaves nothing behind.

@@ -36,7 +36,7 @@ def scale_window(plan):
 
     Parameters
     ----------
-    plan : similitude.plan.Plan
+    plan : similitude.planner.Plan
 
     Returns
     -------
@@ -164,7 +164,7 @@ def plot_plan(plan, kind: str = "all", ax=None, path=None, overwrite: bool = Fal
 
     Parameters
     ----------
-    plan : similitude.plan.Plan
+    plan : similitude.planner.Plan
     kind : {"all", "scale_window", "reynolds", "groups"}
         ``"groups"`` (the default of ``Plan.plot``) draws both panels, like ``"all"``.
     ax : matplotlib Axes, or a pair of Axes for ``"all"``, optional

@@ -866,7 +866,7 @@ def write_plan(plan, path, overwrite: bool = False) -> pathlib.Path:
 
     Parameters
     ----------
-    plan : similitude.plan.Plan
+    plan : similitude.planner.Plan
         The plan (case, solution, scale, fluids, groups, conflicts, checks, scale factors,
         run matrix, notes).
     path : str or path-like

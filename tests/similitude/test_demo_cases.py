@@ -25,7 +25,7 @@ KN = 1852.0 / 3600.0
 
 @pytest.fixture(scope="module")
 def plans():
-    from similitude.plan import plan
+    from similitude.planner import plan
 
     return {name: plan(load_case(DEMO / f"{name}.toml")) for name in CASES}
 

@@ -17,7 +17,7 @@ import similitude as sim
 from similitude.case import Case, FluidSpec, MatchRequest, Prototype
 from similitude.errors import InputError
 from similitude.facilities import Facility
-from similitude.plan import Plan, plan
+from similitude.planner import Plan, plan
 from similitude.units import to_si
 
 KN = 1852.0 / 3600.0  # knot [m/s] (international nautical mile, 1929)

@@ -22,8 +22,6 @@ from __future__ import annotations
 
 import html
 import math
-import sys
-import types
 from dataclasses import asdict, dataclass, field, replace
 
 import numpy as np
@@ -399,15 +397,5 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
         out.append("Failed checks: " + "; ".join(c.name for c in fails) + ".")
     return out
 
-
-class _CallableModule(types.ModuleType):
-    """Importing ``similitude.plan`` binds the package attribute ``plan`` to this module, which
-    would shadow the lazily exported function; calling the module calls :func:`plan`."""
-
-    def __call__(self, case: Case, n_candidates: int | None = None) -> Plan:
-        return plan(case, n_candidates)
-
-
-sys.modules[__name__].__class__ = _CallableModule
 
 __all__ = ["Plan", "plan"]

@@ -38,6 +38,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from similitude.errors import InputError
+from similitude.formula_inputs import as_array as _array
+from similitude.formula_inputs import scalar_or_array as _out
 
 #: Names accepted by ``tank_speed_correction(method=...)``.
 TANK_BLOCKAGE_METHODS = ("schuster", "tamura")
@@ -59,21 +61,6 @@ DEFAULT_TUNNEL_SHAPE_FACTOR = 0.86
 MASKELL_EPSILON_3D = 2.5
 
 
-def _array(value, name: str, *, positive: bool = False, nonnegative: bool = False):
-    arr = np.asarray(value, dtype=float)
-    if np.any(~np.isfinite(arr)):
-        raise InputError(f"{name}: got {value!r}; expected finite numbers")
-    if positive and np.any(arr <= 0):
-        first = float(arr[arr <= 0].flat[0]) if arr.ndim else float(arr)
-        raise InputError(f"{name}: got {first:g}; expected a positive number")
-    if nonnegative and np.any(arr < 0):
-        first = float(arr[arr < 0].flat[0]) if arr.ndim else float(arr)
-        raise InputError(f"{name}: got {first:g}; expected zero or a positive number")
-    return arr
-
-
-def _out(arr):
-    return arr if np.ndim(arr) else float(arr)
 
 
 def tank_speed_correction(blockage_ratio, depth_froude, method: str = "schuster",

@@ -34,6 +34,9 @@ from dataclasses import dataclass
 import numpy as np
 
 from similitude.errors import InputError
+from similitude.formula_inputs import as_array as _arr
+from similitude.formula_inputs import check_method as _check_method
+from similitude.formula_inputs import scalar_or_array as _out
 
 #: Names accepted by ``roughness_allowance(method=...)``.
 ROUGHNESS_METHODS = ("bowden_davison", "townsin")
@@ -62,25 +65,7 @@ AIR_DENSITY_15C = 1.225
 SEA_WATER_DENSITY_15C = 1026.021
 
 
-def _arr(value, name: str, *, positive: bool = False, nonnegative: bool = False):
-    arr = np.asarray(value, dtype=float)
-    if np.any(np.isnan(arr)) or np.any(np.isinf(arr)):
-        raise InputError(f"{name}: got {value!r}; expected finite numbers")
-    for flag, test, what in ((positive, arr <= 0, "a positive number"),
-                             (nonnegative, arr < 0, "zero or a positive number")):
-        if flag and np.any(test):
-            first = float(arr[test].flat[0]) if arr.ndim else float(arr)
-            raise InputError(f"{name}: got {first:g}; expected {what}")
-    return arr
 
-
-def _out(arr):
-    return arr if np.ndim(arr) else float(arr)
-
-
-def _check_method(method: str, names: tuple[str, ...]) -> None:
-    if method not in names:
-        raise InputError(f"method: got {method!r}; expected one of {', '.join(names)}")
 
 
 def temperature_corrected_ctm(ctm, cfm_test, cfm_standard, form_factor):

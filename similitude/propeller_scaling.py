@@ -21,25 +21,13 @@ from __future__ import annotations
 import numpy as np
 
 from similitude.errors import InputError
+from similitude.formula_inputs import as_array as _arr
+from similitude.formula_inputs import scalar_or_array as _out
 
 #: Blade surface roughness of the full-scale propeller k_p [m] (ITTC 7.5-02-03-01.4 [1]).
 DEFAULT_BLADE_ROUGHNESS = 30e-6
 
 
-def _arr(value, name: str, *, positive: bool = False, nonnegative: bool = False):
-    arr = np.asarray(value, dtype=float)
-    if np.any(~np.isfinite(arr)):
-        raise InputError(f"{name}: got {value!r}; expected finite numbers")
-    for flag, test, what in ((positive, arr <= 0, "a positive number"),
-                             (nonnegative, arr < 0, "zero or a positive number")):
-        if flag and np.any(test):
-            first = float(arr[test].flat[0]) if arr.ndim else float(arr)
-            raise InputError(f"{name}: got {first:g}; expected {what}")
-    return arr
-
-
-def _out(arr):
-    return arr if np.ndim(arr) else float(arr)
 
 
 def chord_reynolds_075(chord_075, advance_speed, rotation_rate, diameter,

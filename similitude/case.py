@@ -82,6 +82,9 @@ class FluidSpec:
         Absolute salinity [kg/kg] for sea water; None means 35.16504 g/kg.
     relative_humidity : float
         Relative humidity [-] for air.
+    mass_fraction : float or None
+        Solute mass fraction [kg/kg] of a mixture whose catalogue entry takes one (the glycerol
+        mass fraction of ``"glycerol_water"``); None for pure fluids.
     """
 
     name: str
@@ -89,10 +92,16 @@ class FluidSpec:
     pressure: float | None = None
     salinity: float | None = None
     relative_humidity: float = 0.0
+    mass_fraction: float | None = None
 
     def __post_init__(self) -> None:
         _positive("fluid.temperature", self.temperature, allow_none=False)
         _positive("fluid.pressure", self.pressure)
+        w = self.mass_fraction
+        if w is not None and not (isinstance(w, (int, float)) and not isinstance(w, bool)
+                                  and math.isfinite(w) and 0.0 <= w <= 1.0):
+            raise InputError(f"fluid.mass_fraction: {w!r} is not valid; expected a mass "
+                             "fraction between 0 and 1 [kg/kg]")
 
 
 @dataclass(frozen=True)
@@ -191,6 +200,12 @@ class MatchRequest:
         When the exact groups cannot all be met inside the facility, drop the lowest-priority
         one (last in ``exact``), keep the others exact and minimise its log-mismatch instead;
         the plan says so in its notes. False: raise InfeasibleError instead.
+    round_scale : bool
+        For the ``"largest_model"`` and ``"smallest_model"`` objectives, replace the limiting
+        scale by the nearest convenient one that still satisfies every limit (rounded up for
+        the largest model, down for the smallest; see
+        :func:`similitude.solver.convenient_scale`) and re-solve at it; the limiting scale is
+        kept in the solution and the plan notes. False: keep the limiting scale itself.
     """
 
     exact: tuple[str, ...] = ("froude",)
@@ -202,8 +217,13 @@ class MatchRequest:
     friction_line: str = "ittc1957"
     form_factor: float | None = None
     relax: bool = True
+    round_scale: bool = True
 
     def __post_init__(self) -> None:
+        for key in ("relax", "round_scale"):
+            if not isinstance(getattr(self, key), bool):
+                raise InputError(f"match.{key}: {getattr(self, key)!r} is not valid; expected "
+                                 "true or false")
         for key, names in (("match.exact", self.exact), ("match.report", self.report)):
             for g in names:
                 if g not in MATCHABLE_GROUPS:

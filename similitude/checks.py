@@ -7,12 +7,13 @@ Two kinds of limit:
   model size limits of the facility, tank width against the Kelvin wedge, blockage ratio, depth
   Froude number and tank depth against draught (deep-water prototypes), tunnel blockage and
   span, propeller size in a tunnel, dynamometer rotation rate, steady-run length when the
-  facility states a minimum steady time;
+  facility states a minimum steady time, and the wavemaker's period range and largest wave
+  for the wave conditions of the run matrix;
 * **regime checks** (:func:`facility_checks`) are reported with status ``"ok"`` or
   ``"warning"``: minimum model Reynolds number for turbulent flow (with the
   turbulence-stimulation advice), propeller blade Reynolds number, Mach number against the
-  incompressible limit, capillary limits on model waves, wavemaker period and height range,
-  steady-run time against a common-practice minimum.
+  incompressible limit, capillary limits on model waves, steady-run time against a
+  common-practice minimum.
 
 Each check carries its value, limit, margin and source. Where no published number was at hand
 the source says "common practice", and values recalled from memory say so.
@@ -228,6 +229,7 @@ def hard_limits(prob, c) -> list[Limit]:
                          "use a smaller propeller model or a lower speed"))
     if fac.free_surface:
         out.extend(_free_surface_limits(prob, c, lam, lm, v_hi))
+        out.extend(wavemaker_limits(case, lam))
     else:
         out.extend(_tunnel_limits(prob, c, lam, lm))
     if fac.acceleration is not None and getattr(fac, "min_steady_time", None) is not None:
@@ -381,6 +383,18 @@ def facility_checks(prob, c) -> tuple[Check, ...]:
             "common practice (from memory; flat-plate transition band 5e5-5e6, "
             "Schlichting & Gersten 2000)",
             friction.turbulence_stimulation_advice(lm)))
+    fixed = case.request.model_fluid
+    if fixed is not None:
+        # A fixed (test-day) temperature is the case's; outside the facility's stated range
+        # it is suspect but not impossible, so it warns.
+        t_lo, t_hi = fac.temperature_range
+        t = float(np.ravel(c.temperature)[0])
+        checks.append(_check("fixed model fluid temperature vs facility minimum", t, t_lo,
+                             "K", "min", "facility data",
+                             "the facility does not state this temperature; check the case"))
+        checks.append(_check("fixed model fluid temperature vs facility maximum", t, t_hi,
+                             "K", "max", "facility data",
+                             "the facility does not state this temperature; check the case"))
     if fac.pressure_range is not None and c.state.vapour_pressure_si is not None \
             and not fac.free_surface:
         p_ref = float(np.ravel(c.reference_pressure)[0])
@@ -429,25 +443,14 @@ def facility_checks(prob, c) -> tuple[Check, ...]:
     return tuple(checks)
 
 
-def wave_checks(case, scale: float, c=None) -> list[Check]:
-    """Capillary and wavemaker checks of the model waves of ``case.matrix.waves``.
-
-    Model period T_m = T_p / sqrt(lambda), height H_m = H_p / lambda (Froude scaling).
-    Capillary length lambda_c = 2 pi sqrt(sigma/(rho g)) (Lamb 1932 §267); share of the
-    restoring force (lambda_c/lambda_w)^2 (deep water).
-    """
+def _full_scale_waves(case):
+    """(label, kind, period [s] or None, height [m] or None) of each wave condition at full
+    scale; regular waves given by length ratio or steepness are converted by linear
+    dispersion at the prototype water depth."""
     from similitude.waves import wave_length, wave_period
 
-    fac = case.facility
-    out: list[Check] = []
-    if not fac.free_surface or not case.matrix.waves:
-        return out
-    sigma, rho = 0.0728, 998.0  # water at 20 degC when the state has no surface tension
-    if c is not None and c.state.surface_tension_si is not None:
-        sigma = float(np.ravel(c.state.surface_tension_si)[0])
-        rho = float(np.ravel(c.state.density_si)[0])
-    lam_c = 2 * math.pi * math.sqrt(sigma / (rho * G0))
     proto = case.prototype
+    out = []
     for i, w in enumerate(case.matrix.waves):
         label = w.name or f"wave {i + 1}"
         if w.kind == "regular":
@@ -459,6 +462,63 @@ def wave_checks(case, scale: float, c=None) -> list[Check]:
                 height = w.steepness * float(wave_length(period, proto.water_depth))
         else:
             period, height = w.peak_period, w.significant_height
+        out.append((label, w.kind, period, height))
+    return out
+
+
+def wavemaker_limits(case, scale) -> list[Limit]:
+    """Wavemaker period range and largest wave height as hard limits over scales ``scale``.
+
+    Froude scaling of the waves: T_m = T_p / sqrt(lambda), H_m = H_p / lambda; an irregular
+    sea must reach its largest wave, 1.86 H_s for N = 1000 Rayleigh-distributed heights
+    (Longuet-Higgins 1952) [6]_. The limits are the facility's data.
+    """
+    fac = case.facility
+    out: list[Limit] = []
+    if not fac.free_surface or not case.matrix.waves:
+        return out
+    lam = np.asarray(scale, dtype=float)
+    for label, kind, period, height in _full_scale_waves(case):
+        if period is not None and fac.wavemaker_period_range is not None:
+            tm = period / np.sqrt(lam)
+            lo, hi = fac.wavemaker_period_range
+            out.append(Limit(f"{label}: model period vs wavemaker minimum", tm, lo, "min", "s",
+                             "facility data", "wavemaker's shortest period",
+                             "the wavemaker cannot make it; use a larger model"))
+            out.append(Limit(f"{label}: model period vs wavemaker maximum", tm, hi, "max", "s",
+                             "facility data", "wavemaker's longest period",
+                             "the wavemaker cannot make it; use a smaller model"))
+        if fac.wavemaker_max_height is not None and height is not None:
+            factor = 1.0 if kind == "regular" else MAX_OVER_SIGNIFICANT_HEIGHT
+            what = "model wave height" if kind == "regular" else \
+                "largest model wave 1.86 H_s (Longuet-Higgins 1952, N = 1000)"
+            out.append(Limit(f"{label}: {what}", height * factor / lam,
+                             fac.wavemaker_max_height, "max", "m", "facility data",
+                             "wavemaker's highest wave",
+                             "the wavemaker cannot make it; use a smaller model"))
+    return out
+
+
+def wave_checks(case, scale: float, c=None) -> list[Check]:
+    """Capillary checks of the model waves of ``case.matrix.waves`` (the wavemaker's range
+    is a hard limit, :func:`wavemaker_limits`).
+
+    Model period T_m = T_p / sqrt(lambda) (Froude scaling). Capillary length
+    lambda_c = 2 pi sqrt(sigma/(rho g)) (Lamb 1932 §267); share of the restoring force
+    (lambda_c/lambda_w)^2 (deep water).
+    """
+    from similitude.waves import wave_length
+
+    fac = case.facility
+    out: list[Check] = []
+    if not fac.free_surface or not case.matrix.waves:
+        return out
+    sigma, rho = 0.0728, 998.0  # water at 20 degC when the state has no surface tension
+    if c is not None and c.state.surface_tension_si is not None:
+        sigma = float(np.ravel(c.state.surface_tension_si)[0])
+        rho = float(np.ravel(c.state.density_si)[0])
+    lam_c = 2 * math.pi * math.sqrt(sigma / (rho * G0))
+    for label, _, period, _ in _full_scale_waves(case):
         if period is None:
             continue
         tm = period / math.sqrt(scale)
@@ -470,22 +530,6 @@ def wave_checks(case, scale: float, c=None) -> list[Check]:
                           CAPILLARY_MAX_SHARE, "", "max",
                           "capillary-gravity dispersion (Lamb 1932 §267); 1 % common practice",
                           "waves too short: capillarity adds to gravity restoring"))
-        if fac.wavemaker_period_range is not None:
-            lo, hi = fac.wavemaker_period_range
-            out.append(_check(f"{label}: model period vs wavemaker minimum", tm, lo, "s",
-                              "min", "facility data", "the wavemaker cannot make it",
-                              soft=False))
-            out.append(_check(f"{label}: model period vs wavemaker maximum", tm, hi, "s",
-                              "max", "facility data", "the wavemaker cannot make it",
-                              soft=False))
-        if fac.wavemaker_max_height is not None and height is not None:
-            hm = height / scale
-            factor = 1.0 if w.kind == "regular" else MAX_OVER_SIGNIFICANT_HEIGHT
-            what = "model wave height" if w.kind == "regular" else \
-                "largest model wave 1.86 H_s (Longuet-Higgins 1952, N = 1000)"
-            out.append(_check(f"{label}: {what}", hm * factor, fac.wavemaker_max_height, "m",
-                              "max", "facility data", "the wavemaker cannot make it",
-                              soft=False))
     return out
 
 
@@ -506,4 +550,5 @@ __all__ = [
     "midship_area",
     "steady_run_length",
     "wave_checks",
+    "wavemaker_limits",
 ]

@@ -122,6 +122,7 @@ class Plan:
             "facility": self.case.facility.name,
             "scale": self.scale,
             "scale_text": f"1:{self.scale:.4g}",
+            "limiting_scale": _plain(sol.extra.get("limiting_scale", self.scale)),
             "model_length [m]": self.model_length,
             "model_dimensions": {k: _plain(v) for k, v in self.model_dimensions.items()},
             "prototype_fluid": _state_dict(self.prototype_fluid),
@@ -152,7 +153,10 @@ class Plan:
         return [
             f"Plan '{c.name}': {c.prototype.name} ({c.prototype.kind}, L = "
             f"{c.prototype.length:.4g} m) in {c.facility.name} ({c.facility.kind})",
-            f"  scale 1:{self.scale:.4g}; model length {self.model_length:.4g} m",
+            f"  scale 1:{self.scale:.4g}; model length {self.model_length:.4g} m"
+            + (f" (limiting scale 1:{self.solution.extra['limiting_scale']:.6g})"
+               if self.solution.extra.get("limiting_scale", self.scale) != self.scale
+               else ""),
             f"  model fluid {mf.fluid} at {t - 273.15:.2f} degC, {p / 1000:.6g} kPa "
             f"(nu = {float(mf.kinematic_viscosity_si):.4g} m^2/s); prototype "
             f"{self.prototype_fluid.fluid} at {tp - 273.15:.2f} degC",
@@ -374,6 +378,35 @@ def plan(case: Case, n_candidates: int | None = None) -> Plan:
     )
 
 
+def _temperature_notes(case: Case, sol: Solution) -> list[str]:
+    """How the model fluid temperature was chosen, and where the test-day value goes."""
+    fac = case.facility
+    mf = sol.model_fluid
+    t = float(mf.temperature_si) - 273.15
+    workbook = ("enter the temperature measured on the test day in the temperature cell of "
+                "the workbook's 'Test day' sheet, which recomputes the model fluid properties, "
+                "Reynolds numbers and friction coefficients for the runs")
+    fixed = case.request.model_fluid
+    if fixed is not None:
+        return [f"Model fluid temperature {t:.2f} degC is fixed by the case "
+                f"(match.model_fluid); {workbook}."]
+    lo, hi = fac.temperature_range
+    if hi <= lo:
+        return [f"Model fluid temperature {t:.2f} degC is the facility's only temperature; "
+                f"{workbook}."]
+    if not fac.free_surface:
+        return []
+    solved = sol.extra.get("request", case.request)
+    reported = ", ".join(solved.report) or "reynolds"
+    return [
+        f"Model water temperature {t:.2f} degC was chosen within the facility range "
+        f"{lo - 273.15:.1f}-{hi - 273.15:.1f} degC to minimise the mismatch of the reported "
+        f"groups ({reported}; the Reynolds mismatch in a resistance test). A tank's water is "
+        f"at whatever temperature it has on the day: {workbook}; to plan at a known "
+        "temperature, fix it with match.model_fluid."
+    ]
+
+
 def _notes(case: Case, sol: Solution, checks) -> list[str]:
     from similitude.friction import turbulence_stimulation_advice
 
@@ -387,6 +420,18 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
                "prototype speed; all values are SI.")
     if sol.extra.get("solved_by"):
         out.append(f"The second exact group is met through the {sol.extra['solved_by']}.")
+    rounding = sol.extra.get("scale_rounding")
+    if rounding:
+        lam0 = sol.extra["limiting_scale"]
+        if rounding.startswith("rounded"):
+            out.append(
+                f"Scale {rounding}: the facility limits allow 1:{lam0:.6g} "
+                f"({sol.extra['limiting_binding']}); every limit still holds at "
+                f"1:{sol.scale:g} (switch off with round_scale = false)."
+            )
+        else:
+            out.append(f"Scale kept at the limiting 1:{lam0:.4g}, {rounding}.")
+    out.extend(_temperature_notes(case, sol))
     if case.prototype.kind in ("surface_ship", "submerged_body") and case.facility.free_surface:
         out.append(turbulence_stimulation_advice(case.prototype.length / sol.scale))
     for group, reason in sol.extra.get("relaxed", ()):

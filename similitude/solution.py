@@ -43,6 +43,10 @@ class Solution:
         ``fluid`` (catalogue name), ``static_pressure`` [Pa], ``solved_by`` (the variable
         through which the second exact group is met), and, when a requested exact group had
         to be dropped, ``relaxed`` ((group, reason), ...) and ``request`` (the request solved).
+        For the largest/smallest-model objectives: ``limiting_scale`` (the scale at the
+        binding facility limit, before rounding), ``limiting_binding`` (that limit in words)
+        and ``scale_rounding`` (what was done: "rounded up from ... to ..." or "not rounded:
+        ..."), see ``MatchRequest.round_scale``.
     """
 
     scale: float

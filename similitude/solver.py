@@ -24,6 +24,13 @@ log-mismatch of the groups only reported. Fine line searches along each free var
 the grid's resolution, the admissible boundary in scale is found by a bracketing root of the
 worst limit violation, and interior optima of the mismatch by bounded Brent minimisation.
 
+Practitioners build models to round scales, so for the largest- and smallest-model
+objectives the limiting scale is then replaced by the nearest convenient one that still
+satisfies every limit (:func:`convenient_scale`, rounded towards a smaller model for
+``largest_model``; common practice) and the case is re-solved at that fixed scale, so the exact
+groups stay exact to 1e-9; the limiting scale is kept in ``Solution.extra``
+(``MatchRequest.round_scale`` switches this off).
+
 When the exact groups cannot all be met inside the facility and the request allows it
 (``MatchRequest.relax``, default), the lowest-priority exact group is dropped, the others stay
 exact and its log-mismatch is minimised; the Solution records why (``extra["relaxed"]``).
@@ -105,13 +112,32 @@ def _extra_kwargs(info, spec: FluidSpec | None) -> dict:
         out["salinity"] = spec.salinity
     if spec.relative_humidity and info.kind == "gas" and info.name == "air":
         out["relative_humidity"] = spec.relative_humidity
+    if spec.mass_fraction is not None and info.range_of("mass_fraction") is not None:
+        out["mass_fraction"] = spec.mass_fraction
     return out
+
+
+def _check_composition(info, spec: FluidSpec | None, field_name: str) -> None:
+    """A mixture needs its mass fraction; a pure fluid must not be given one."""
+    takes = info.range_of("mass_fraction") is not None
+    given = spec is not None and spec.mass_fraction is not None
+    if takes and not given:
+        raise InputError(
+            f"{field_name}.mass_fraction: missing for {info.name}; expected the solute mass "
+            "fraction [kg/kg] (e.g. 0.5 for a 50 % glycerol solution)"
+        )
+    if given and not takes:
+        raise InputError(
+            f"{field_name}.mass_fraction: {spec.mass_fraction!r} given, but {info.name} is not "
+            "a mixture; expected no mass fraction"
+        )
 
 
 def prototype_state(case: Case) -> FluidState:
     """Scalar fluid state of the prototype (its FluidSpec) [SI]."""
     spec = case.prototype.fluid
     info = fluid_info(spec.name, "prototype.fluid.name")
+    _check_composition(info, spec, "prototype.fluid")
     p = spec.pressure if spec.pressure is not None else P_ATM
     try:
         return info.evaluate_si(float(spec.temperature), float(p), **_extra_kwargs(info, spec))
@@ -358,7 +384,12 @@ def _fluid_options(case: Case) -> tuple[FluidOption, ...]:
         info = fluid_info(name, "facility.fluids" if req.model_fluid is None
                           else "match.model_fluid.name")
         spec = req.model_fluid
+        if spec is None and info.range_of("mass_fraction") is not None:
+            # A mixture's composition is the case's to state, not the solver's to guess.
+            reasons.append(f"{info.name}: needs match.model_fluid with its mass_fraction")
+            continue
         if spec is not None:
+            _check_composition(info, spec, "match.model_fluid")
             allowed = {fluid_info(n, "facility.fluids").name for n in fac.fluids}
             if info.name not in allowed:
                 raise InputError(
@@ -1056,8 +1087,109 @@ def _no_root_message(prob, r_by_opt) -> str:
     return msg
 
 
+def convenient_scale(scale: float, direction: str = "up", steps: int = 0) -> float:
+    """The convenient scale next to ``scale`` in ``direction`` (``"up"`` or ``"down"``).
+
+    Model makers build to round scales: whole numbers for lambda >= 10 (1:21, 1:35), halves
+    for 4 <= lambda < 10 (1:8.5), and two significant figures below 4 (1:3.3, 1:1.3; one
+    decimal for 1 <= lambda < 4). This rule is common practice, not a published standard.
+
+    Parameters
+    ----------
+    scale : float
+        lambda = L_p / L_m [-], > 0.
+    direction : str
+        ``"up"``: the smallest convenient lambda >= scale (a model no larger than the limiting
+        one); ``"down"``: the largest convenient lambda <= scale.
+    steps : int
+        Further convenient values to step past (0: the nearest).
+
+    Returns
+    -------
+    float
+        The convenient lambda [-]; ``scale`` itself when it is already convenient (to 1e-9
+        relative).
+    """
+    if not (math.isfinite(scale) and scale > 0):
+        raise InputError(f"scale: {scale!r} is not valid; expected a positive finite number")
+    if direction not in ("up", "down"):
+        raise InputError(f"direction: {direction!r} is unknown; expected 'up' or 'down'")
+    if scale >= 10.0:
+        step = 1.0
+    elif scale >= 4.0:
+        step = 0.5
+    else:
+        step = 10.0 ** (math.floor(math.log10(scale)) - 1)
+    q = scale / step
+    k = round(q)
+    if abs(q - k) > 1e-9 * q:  # not already on a convenient value
+        k = math.ceil(q) if direction == "up" else math.floor(q)
+    if k <= 0:
+        return float("nan")
+    # Round the product so 13 x 0.1 prints as 1.3, not 1.3000000000000003.
+    out = float(round(k * step, 12))
+    if steps > 0:  # step past this value (the step size may change on the way)
+        nudge = 1 + 1e-6 if direction == "up" else 1 - 1e-6
+        return convenient_scale(out * nudge, direction, steps - 1)
+    return out
+
+
+#: Convenient scales tried after the nearest one before the limiting scale is kept.
+_ROUNDING_TRIES = 3
+
+
+def _round_scale(case: Case, sol: Solution, n_candidates: int) -> Solution:
+    """Replace the limiting scale of a largest/smallest-model solution by a convenient one
+    that satisfies every limit, re-solved at that fixed scale (exact groups to 1e-9)."""
+    req = case.request
+    solved = sol.extra.get("request", req)
+    if (not req.round_scale or req.scale is not None or req.model_length is not None
+            or solved.objective not in ("largest_model", "smallest_model")
+            or sol.extra.get("solved_by") == _AXIS_WORDS["lam"]):
+        return sol
+    direction = "up" if solved.objective == "largest_model" else "down"
+    lam_lo, lam_hi = _scale_bounds(case)
+    lam0 = sol.scale
+    searched = sol.candidates_searched
+    tried = []
+    for i in range(_ROUNDING_TRIES):
+        lam = convenient_scale(lam0, direction, i)
+        if not (math.isfinite(lam) and lam_lo * (1 - 1e-12) <= lam <= lam_hi * (1 + 1e-12)):
+            break
+        if lam == lam0:
+            return replace(sol, extra={**sol.extra, "limiting_scale": lam0,
+                                       "limiting_binding": sol.binding})
+        fixed = replace(case, request=replace(solved, scale=lam, round_scale=False,
+                                              relax=False))
+        try:
+            new = _solve_relaxing(fixed, n_candidates)
+        except (InfeasibleError, InputError) as exc:
+            tried.append(f"1:{lam:g} ({exc})")
+            continue
+        extra = {**new.extra, "limiting_scale": lam0, "limiting_binding": sol.binding,
+                 "scale_rounding": f"rounded {direction} from the limiting 1:{lam0:.6g} to "
+                                   f"the convenient 1:{lam:g}"}
+        for key in ("relaxed", "request"):
+            if key in sol.extra:
+                extra[key] = sol.extra[key]
+        return replace(new, extra=extra, objective=sol.objective,
+                       binding=f"{sol.binding}; scale rounded {direction} to the convenient "
+                               f"1:{lam:g} (limiting 1:{lam0:.6g})",
+                       candidates_searched=searched + new.candidates_searched)
+    why = "; ".join(tried) if tried else "no convenient scale inside the search range"
+    return replace(sol, extra={**sol.extra, "limiting_scale": lam0,
+                               "limiting_binding": sol.binding,
+                               "scale_rounding": f"not rounded: {why}"})
+
+
 def solve(case: Case, n_candidates: int = DEFAULT_CANDIDATES) -> Solution:
     """Choose the model scale, speed ratio, fluid and state for a case.
+
+    For the largest- and smallest-model objectives the limiting scale found by the search is
+    then replaced by the nearest convenient scale that still satisfies every limit
+    (:func:`convenient_scale`; ``MatchRequest.round_scale``), re-solved at that fixed scale;
+    ``extra["limiting_scale"]`` keeps the unrounded value and ``extra["scale_rounding"]``
+    says what was done.
 
     Parameters
     ----------
@@ -1077,6 +1209,11 @@ def solve(case: Case, n_candidates: int = DEFAULT_CANDIDATES) -> Solution:
         No model satisfies the facility limits; the message names the binding limit and by
         how much it is exceeded at the least-violating candidate.
     """
+    return _round_scale(case, _solve_relaxing(case, n_candidates), n_candidates)
+
+
+def _solve_relaxing(case: Case, n_candidates: int) -> Solution:
+    """The solve at the limiting scale, dropping the last exact group when allowed."""
     try:
         prob = build_problem(case)
         return _solve_problem(prob, n_candidates)
@@ -1089,7 +1226,7 @@ def solve(case: Case, n_candidates: int = DEFAULT_CANDIDATES) -> Solution:
         dropped = hard[-1]
         relaxed = replace(req, exact=tuple(g for g in req.exact if g != dropped),
                           report=(dropped,), objective="least_mismatch")
-        sol = solve(replace(case, request=relaxed), n_candidates)
+        sol = _solve_relaxing(replace(case, request=relaxed), n_candidates)
         extra = dict(sol.extra)
         extra["relaxed"] = tuple(extra.get("relaxed", ())) + ((dropped, str(exc)),)
         extra["request"] = extra.get("request", relaxed)
@@ -1292,6 +1429,7 @@ def candidate_at(prob: Problem, solution: Solution) -> Candidates:
 __all__ = [
     "DEFAULT_CANDIDATES",
     "candidate_at",
+    "convenient_scale",
     "FREE_GROUPS",
     "SPEED_EXPONENT",
     "Candidates",

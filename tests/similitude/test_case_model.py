@@ -140,3 +140,14 @@ def test_fixed_model_fluid_must_be_one_of_the_facility_fluids():
     case = Case(proto(), tank(), MatchRequest(model_fluid=FluidSpec("sea_water", 290.0)))
     with pytest.raises(InputError, match="match.model_fluid.name"):
         solver.solve(case)
+
+
+@pytest.mark.parametrize("w", [-0.1, 1.5, float("nan")])
+def test_mass_fraction_outside_0_to_1_is_refused(w):
+    with pytest.raises(InputError, match="fluid.mass_fraction"):
+        FluidSpec("glycerol_water", 293.15, mass_fraction=w)
+
+
+def test_round_scale_must_be_a_boolean():
+    with pytest.raises(InputError, match="match.round_scale"):
+        MatchRequest(round_scale="yes")

@@ -18,6 +18,7 @@ from similitude.case import (
     Prototype,
     WaveCondition,
 )
+from similitude.errors import InfeasibleError
 from similitude.facilities import Facility
 from similitude.findings import Check
 
@@ -70,23 +71,33 @@ def test_check_margin_is_positive_inside_and_negative_outside():
 
 
 def test_towing_tank_plan_reports_the_blockage_limit_at_its_value():
-    # Blockage binds (see test_solver): m = 0.005 exactly, margin 0.
-    c = checks_of(Case(ship(), tank()))["blockage ratio A_X/(B_T h)"]
+    # Blockage binds at the limiting scale (see test_solver): m = 0.005 exactly, margin 0.
+    c = checks_of(Case(ship(), tank(), MatchRequest(round_scale=False)))[
+        "blockage ratio A_X/(B_T h)"]
     assert c.value == pytest.approx(0.005, rel=1e-9)
     assert c.limit == 0.005 and c.status == "ok"
+    assert c.margin == pytest.approx(0.0, abs=1e-9)
     assert c.source.startswith("common practice")
 
 
+def test_blockage_margin_at_the_convenient_scale_is_one_minus_the_area_ratio():
+    # At 1:35: m = 190/35^2/32 = 0.004847; margin (0.005 - m)/0.005 = 1 - (34.46/35)^2 = 3.06 %.
+    c = checks_of(Case(ship(), tank()))["blockage ratio A_X/(B_T h)"]
+    assert c.value == pytest.approx(190.0 / 35.0**2 / 32.0, rel=1e-12)
+    assert c.margin == pytest.approx(1 - 190.0 / 0.16 / 35.0**2, rel=1e-9)
+
+
 def test_kelvin_check_compares_model_length_with_tank_width_over_0_71():
+    # L_m = 150/35 = 4.286 m (the convenient 1:35) against 8/0.7071 = 11.31 m.
     c = checks_of(Case(ship(), tank()))["model length vs tank width (Kelvin wedge)"]
     assert c.limit == pytest.approx(8.0 * math.sqrt(2), rel=1e-12)
-    assert c.value == pytest.approx(150.0 / math.sqrt(190.0 / 0.16), rel=1e-9)
+    assert c.value == pytest.approx(150.0 / 35.0, rel=1e-12)
 
 
 def test_depth_froude_check_uses_the_tank_depth():
-    # V_m = 10/sqrt(34.46) = 1.704 m/s; Fh = 1.704/sqrt(g 4) = 0.272.
+    # V_m = 10/sqrt(35) = 1.690 m/s; Fh = 1.690/sqrt(g 4) = 0.270.
     c = checks_of(Case(ship(), tank()))["depth Froude number V_m/sqrt(g h)"]
-    lam = math.sqrt(190.0 / 0.16)
+    lam = 35.0
     assert c.value == pytest.approx(10.0 / math.sqrt(lam) / math.sqrt(G * 4.0), rel=1e-9)
     assert "7.5-04-01-01.1" in c.source
 
@@ -111,13 +122,74 @@ def test_short_model_waves_fail_the_capillary_period_limit():
 def test_wavemaker_height_of_an_irregular_sea_uses_1_86_hs():
     # Longuet-Higgins (1952): largest of 1000 Rayleigh waves sqrt(ln 1000 / 2) H_s = 1.86 H_s;
     # H_s = 6 m at 1:30 -> 0.2 m; 1.86 x 0.2 = 0.372 m > 0.3 m wavemaker limit.
+    # The wavemaker is a hard limit: a fixed 1:30 model is infeasible, by 0.3717/0.3 - 1 = 24 %.
     spec = MatrixSpec(waves=(WaveCondition("irregular", significant_height=6.0,
                                            peak_period=12.0, name="sea"),))
     fac = tank(width=20.0, wavemaker_max_height=0.3, wavemaker_period_range=(0.5, 4.0))
-    found = checks_of(Case(ship(), fac, MatchRequest(scale=30.0), spec))
-    c = next(v for k, v in found.items() if k.startswith("sea: largest model wave"))
-    assert c.value == pytest.approx(0.2 * math.sqrt(math.log(1000) / 2), rel=1e-12)
-    assert c.status == "fail"
+    with pytest.raises(InfeasibleError) as exc:
+        solver.solve(Case(ship(), fac, MatchRequest(scale=30.0), spec))
+    msg = str(exc.value)
+    largest = 0.2 * math.sqrt(math.log(1000) / 2)
+    assert "sea: largest model wave" in msg and "wavemaker's highest wave 0.3 m" in msg
+    assert f"{largest:.4g} m" in msg and f"by {(largest / 0.3 - 1) * 100:.3g} %" in msg
+
+
+def test_wavemaker_height_sets_the_largest_model_of_a_wave_test():
+    # Kelvin width 20/0.707 = 28 m, depth Froude (lambda >= 7.0) and carriage allow large
+    # models; H_s = 6 m needs 1.86 H_s / lambda <= 0.3 m -> lambda = 6 x 1.8585 / 0.3 = 37.17;
+    # T_m = 12/sqrt(37.17) = 1.97 s lies inside the 0.5-4 s wavemaker range.
+    spec = MatrixSpec(waves=(WaveCondition("irregular", significant_height=6.0,
+                                           peak_period=12.0, name="sea"),))
+    fac = tank(width=20.0, wavemaker_max_height=0.3, wavemaker_period_range=(0.5, 4.0))
+    case = Case(ship(dimensions={}), fac, MatchRequest(round_scale=False), spec)
+    sol = solver.solve(case)
+    assert sol.scale == pytest.approx(6.0 * math.sqrt(math.log(1000) / 2) / 0.3, rel=1e-9)
+    assert "largest model wave" in sol.binding
+
+
+def test_wavemaker_period_range_is_reported_with_margins():
+    # T_m = 12/sqrt(40) = 1.897 s against 0.5 s and 4 s: margins 1.897/0.5 - 1 and
+    # 1 - 1.897/4.
+    spec = MatrixSpec(waves=(WaveCondition("irregular", significant_height=6.0,
+                                           peak_period=12.0, name="sea"),))
+    fac = tank(width=20.0, wavemaker_max_height=0.3, wavemaker_period_range=(0.5, 4.0))
+    found = checks_of(Case(ship(dimensions={}), fac, MatchRequest(scale=40.0), spec))
+    tm = 12.0 / math.sqrt(40.0)
+    lo = found["sea: model period vs wavemaker minimum"]
+    hi = found["sea: model period vs wavemaker maximum"]
+    assert lo.margin == pytest.approx(tm / 0.5 - 1, rel=1e-12) and lo.status == "ok"
+    assert hi.margin == pytest.approx(1 - tm / 4.0, rel=1e-12) and hi.source == "facility data"
+
+
+def test_stated_minimum_steady_time_sets_the_largest_model_in_a_short_tank():
+    # 60 m tank, a = d = 0.25 m/s^2, 10 s steady: 60 - V^2/(2a) - V^2/(2d) - L_m >= 10 V with
+    # V = 10 x and L_m = 150 x^2 (x = lambda^-0.5): 550 x^2 + 100 x - 60 = 0,
+    # x = (-100 + sqrt(100^2 + 4 x 550 x 60)) / 1100 = 0.25166, lambda = 1/x^2 = 15.79
+    # (kinematics of uniform acceleration; the Kelvin limit lambda >= 13.3 is then inactive).
+    fac = tank(length=60.0, acceleration=0.25, min_steady_time=10.0)
+    sol = solver.solve(Case(ship(dimensions={}), fac, MatchRequest(round_scale=False)))
+    x = (-100.0 + math.sqrt(100.0**2 + 4 * 550.0 * 60.0)) / 1100.0
+    assert sol.scale == pytest.approx(1.0 / x**2, rel=1e-9)
+    assert "steady-run length" in sol.binding
+
+
+def test_tank_depth_is_checked_against_three_root_beam_draught():
+    # ITTC 7.5-04-01-01.1 / ISO 15016 deep-water criterion (from memory): h > 3 sqrt(B T);
+    # at 1:40 B_m = 0.6 m, T_m = 0.2 m: 3 sqrt(0.12) = 1.039 m against h = 4 m.
+    c = checks_of(Case(ship(), tank(), MatchRequest(scale=40.0)))[
+        "tank depth needed 3 sqrt(B_m T_m)"]
+    assert c.value == pytest.approx(3 * math.sqrt(0.6 * 0.2), rel=1e-12)
+    assert c.limit == 4.0 and c.margin == pytest.approx(1 - c.value / 4.0, rel=1e-12)
+
+
+def test_every_check_of_a_plan_carries_value_limit_margin_and_source():
+    # Issue 4: each check is reported with value, limit, margin and source.
+    for case in (Case(ship(), tank()), Case(ship(), tank(), MatchRequest(scale=100.0))):
+        for c in checks_of(case).values():
+            assert math.isfinite(c.value) and math.isfinite(c.limit), c.name
+            assert math.isfinite(c.margin), c.name
+            assert c.source.strip(), c.name
+            assert (c.margin >= -1e-9) == (c.status == "ok"), c.name
 
 
 def test_wind_tunnel_ship_model_uses_the_imo_5_percent_blockage_limit():
@@ -189,3 +261,13 @@ def test_cavitation_tunnel_pressure_is_checked_against_its_range():
     lo = found["tunnel static pressure at the model vs facility minimum"]
     assert hi.status == "ok" and lo.status == "ok"
     assert hi.limit == 2e5 and lo.limit == 5e3
+
+
+def test_fixed_model_fluid_temperature_outside_the_facility_range_warns():
+    # Facility range 10-25 degC (Facility default); a stated test-day 27 degC is outside it.
+    req = MatchRequest(model_fluid=FluidSpec("fresh_water", 300.15))
+    found = checks_of(Case(ship(), tank(), req))
+    hi = found["fixed model fluid temperature vs facility maximum"]
+    assert hi.value == pytest.approx(300.15) and hi.limit == pytest.approx(298.15)
+    assert hi.status == "warning" and hi.margin < 0
+    assert found["fixed model fluid temperature vs facility minimum"].status == "ok"

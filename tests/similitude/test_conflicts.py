@@ -125,11 +125,11 @@ def test_low_model_reynolds_adds_stimulation_advice():
 
 
 def test_tank_blockage_note_uses_schuster():
-    prob = solver.build_problem(Case(ship(), tank()))
+    prob = solver.build_problem(Case(ship(), tank(), MatchRequest(round_scale=False)))
     sol = solver.solve(prob.case)
     notes = conflicts.blockage_notes(prob, solver.candidate_at(prob, sol))
-    # Schuster: dV/V = m/(1 - m - Fh^2) + (2/3) Fh^10 (R_V/R_T = 0 upper bound); m = 0.005,
-    # Fh = 0.2722 -> 0.005/0.9209 + 0.67 x 2.2e-6 = 0.543 %.
+    # Schuster: dV/V = m/(1 - m - Fh^2) + (2/3) Fh^10 (R_V/R_T = 0 upper bound); m = 0.005 at
+    # the limiting scale, Fh = 0.2722 -> 0.005/0.9209 + 0.67 x 2.2e-6 = 0.543 %.
     fh = 10.0 * sol.velocity_ratio / math.sqrt(9.80665 * 4.0)
     dv = 0.005 / (1 - 0.005 - fh**2) + (2 / 3) * fh**10
     assert f"{dv * 100:.3g} %" in notes[0]
@@ -149,3 +149,97 @@ def test_bluff_body_reynolds_conflict_warns_of_the_drag_crisis():
     # Prandtl-Schlichting flat plate 0.455/(log10 Re)^2.58 (Schlichting 1979).
     assert cf.details["C_F model (flat plate)"] == pytest.approx(
         0.455 / math.log10(cf.model_value) ** 2.58, rel=1e-12)
+
+
+# --- selectable friction lines, form factor, Mach, wind-tunnel blockage ----------------------
+FRICTION_FORMS = {
+    # Hughes (1954), Trans. RINA 96: C_F = 0.066/(log10 Re - 2.03)^2.
+    "hughes": ("Hughes line", lambda re: 0.066 / (math.log10(re) - 2.03) ** 2),
+    # Prandtl-Schlichting (Schlichting, Boundary-Layer Theory): 0.455/(log10 Re)^2.58.
+    "prandtl_schlichting": ("Prandtl-Schlichting line",
+                            lambda re: 0.455 / math.log10(re) ** 2.58),
+    # Blasius (1908) laminar flat plate: 1.328/sqrt(Re).
+    "blasius": ("Blasius laminar line", lambda re: 1.328 / math.sqrt(re)),
+    # ITTC-1957 (8th ITTC, 1957): 0.075/(log10 Re - 2)^2.
+    "ittc1957": ("ITTC-1957 line", lambda re: 0.075 / (math.log10(re) - 2.0) ** 2),
+}
+
+
+@pytest.mark.parametrize("line", sorted(FRICTION_FORMS))
+def test_requested_friction_line_is_used_for_the_reynolds_conflict(line):
+    words, form = FRICTION_FORMS[line]
+    found, _ = conflicts_of(Case(ship(), tank(), MatchRequest(friction_line=line)))
+    cf = found["reynolds"]
+    assert cf.details["method"] == line and words in cf.consequence
+    assert cf.details["C_F model"] == pytest.approx(form(cf.model_value), rel=1e-12)
+    assert cf.details["C_F ship"] == pytest.approx(form(cf.prototype_value), rel=1e-12)
+
+
+def test_schoenherr_line_in_a_plan_solves_the_implicit_equation():
+    # Schoenherr (1932): 0.242/sqrt(C_F) = log10(Re C_F), solved exactly.
+    found, _ = conflicts_of(Case(ship(), tank(), MatchRequest(friction_line="schoenherr")))
+    cf = found["reynolds"]
+    for re, c in ((cf.model_value, cf.details["C_F model"]),
+                  (cf.prototype_value, cf.details["C_F ship"])):
+        assert 0.242 / math.sqrt(c) == pytest.approx(math.log10(re * c), rel=1e-10)
+
+
+def test_requested_form_factor_enters_the_viscous_correction():
+    # 1978 ITTC: (1 + k)(C_FM - C_FS) with k = 0.15; the naive-scaling bound stays
+    # (C_FM - C_FS)/C_FS because it is relative to (1 + k) C_FS.
+    found, _ = conflicts_of(Case(ship(), tank(), MatchRequest(form_factor=0.15)))
+    d = found["reynolds"].details
+    assert d["(1+k)"] == pytest.approx(1.15, rel=1e-15)
+    assert d["viscous correction (1+k)(C_FM - C_FS)"] == pytest.approx(
+        1.15 * (d["C_F model"] - d["C_F ship"]), rel=1e-12)
+    assert d["naive scaling error bound [%]"] == pytest.approx(
+        100 * (d["C_F model"] - d["C_F ship"]) / d["C_F ship"], rel=1e-12)
+    assert "(1+k) = 1.15" in found["reynolds"].consequence
+
+
+def test_unmatched_mach_number_reports_the_prandtl_glauert_factors():
+    # Reynolds exact for a 1 m body at 50 m/s at 1:4 needs 200 m/s in the model: Ma_m = 200/a,
+    # Ma_p = 50/a (same air); Prandtl-Glauert 1/sqrt(1 - Ma^2) (Glauert 1928) on each side.
+    proto = Prototype("bluff_body", 1.0, (50.0,), FluidSpec("air", 288.15))
+    fac = Facility("wind_tunnel", "wt", 10.0, 4.0, 3.0, (5.0, 250.0), fluids=("air",),
+                   temperature_range=(288.15, 288.15))
+    found, sol = conflicts_of(Case(proto, fac, MatchRequest(exact=("reynolds",), report=(),
+                                                            scale=4.0)), keys=("mach",))
+    cf = found["mach"]
+    a = float(sol.model_fluid.speed_of_sound_si)
+    assert cf.model_value == pytest.approx(50.0 * sol.velocity_ratio / a, rel=1e-12)
+    assert sol.velocity_ratio == pytest.approx(4.0, rel=1e-9)
+    assert cf.details["Prandtl-Glauert factor model"] == pytest.approx(
+        1 / math.sqrt(1 - cf.model_value**2), rel=1e-12)
+    assert "compressibility" in cf.consequence
+
+
+def test_closed_wind_tunnel_note_gives_the_thom_pope_solid_blockage():
+    # Thom/Pope (Barlow, Rae & Pope 1999 ch. 10): eps_sb = K tau_1 V_m / C^1.5 with the
+    # module's body and tunnel shape factors; V_m = 40 m^3 / 10^3, C = 4 x 3 m^2.
+    from similitude import blockage
+
+    proto = Prototype("vehicle", 10.0, (30.0,), FluidSpec("air", 288.15),
+                      dimensions={"volume": 40.0, "frontal_area": 8.0})
+    fac = Facility("wind_tunnel", "wt", 10.0, 4.0, 3.0, (5.0, 60.0), fluids=("air",),
+                   temperature_range=(288.15, 288.15))
+    case = Case(proto, fac, MatchRequest(exact=("mach",), report=(), scale=10.0))
+    prob = solver.build_problem(case)
+    sol = solver.solve(case)
+    notes = conflicts.blockage_notes(prob, solver.candidate_at(prob, sol))
+    eps = (blockage.DEFAULT_BODY_SHAPE_FACTOR * blockage.DEFAULT_TUNNEL_SHAPE_FACTOR
+           * 40.0 / 1000.0 / 12.0**1.5)
+    assert f"solid blockage dV/V = {eps * 100:.3g} %" in notes[0]
+    assert "wake blockage" in notes[0]
+
+
+def test_open_jet_tunnel_note_says_closed_section_corrections_do_not_apply():
+    proto = Prototype("vehicle", 10.0, (30.0,), FluidSpec("air", 288.15),
+                      dimensions={"volume": 40.0, "frontal_area": 8.0})
+    fac = Facility("wind_tunnel", "jet", 10.0, 4.0, 3.0, (5.0, 60.0), fluids=("air",),
+                   temperature_range=(288.15, 288.15), open_jet=True)
+    case = Case(proto, fac, MatchRequest(exact=("mach",), report=(), scale=10.0))
+    prob = solver.build_problem(case)
+    sol = solver.solve(case)
+    notes = conflicts.blockage_notes(prob, solver.candidate_at(prob, sol))
+    assert "Open-jet" in notes[0] and "do not apply" in notes[0]

@@ -8,6 +8,7 @@ Entry points (arguments are pint Quantities or strings such as ``"15 degC"``; ar
     air(temperature, pressure="101325 Pa", relative_humidity=0)
     standard_atmosphere(altitude)                 # ISO 2533
     nitrogen(temperature, pressure)               # test gas for pressurised/cryogenic tunnels
+    glycerol_water(temperature, mass_fraction)    # viscous model liquid (0-100 degC, 0-1 kg/kg)
 
 Each returns a :class:`FluidState`. This package knows nothing of similitude.
 """
@@ -16,11 +17,12 @@ from .air import air
 from .atmosphere import standard_atmosphere
 from .catalogue import get_fluid, list_fluids
 from .gases import nitrogen
+from .glycerol_water import glycerol_water
 from .registry import FluidInfo
 from .seawater import sea_water
 from .state import FluidState
 from .units import Q_, parse_quantity, to_si, ureg
-from .validity import OutOfRangeError, Range
+from .validity import OutOfRangeError, Range, ShapeMismatchError
 from .water import fresh_water
 
 __all__ = [
@@ -29,9 +31,11 @@ __all__ = [
     "OutOfRangeError",
     "Q_",
     "Range",
+    "ShapeMismatchError",
     "air",
     "fresh_water",
     "get_fluid",
+    "glycerol_water",
     "list_fluids",
     "nitrogen",
     "parse_quantity",

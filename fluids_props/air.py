@@ -59,7 +59,7 @@ from . import _helmholtz_gas as hg
 from .registry import FluidInfo
 from .state import FluidState
 from .units import to_si
-from .validity import OutOfRangeError, Range, check
+from .validity import OutOfRangeError, Range, check, common_shape
 
 T_RANGE = Range("temperature", 200.0, 400.0, "K")
 P_RANGE = Range("pressure", 1.0e3, 2.0e6, "Pa")
@@ -307,6 +307,8 @@ def air_si(temperature_K, pressure_Pa=101325.0, relative_humidity=0.0, extrapola
     2. Lemmon et al. (2000), J. Phys. Chem. Ref. Data 29, 331-385.
     3. Lemmon & Jacobsen (2004), Int. J. Thermophys. 25, 21-69.
     """
+    common_shape("air", temperature=temperature_K, pressure=pressure_Pa,
+                 relative_humidity=relative_humidity)
     T, p, h = np.broadcast_arrays(np.asarray(temperature_K, dtype=float),
                                   np.asarray(pressure_Pa, dtype=float),
                                   np.asarray(relative_humidity, dtype=float))

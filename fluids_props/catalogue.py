@@ -16,10 +16,12 @@ def list_fluids() -> tuple[FluidInfo, ...]:
         One entry per fluid; ``FluidInfo.ranges`` gives the validity range of each input.
     """
     # The package re-exports functions named like their modules (``air``), so go by module path.
-    water, seawater, air, gases = (
-        importlib.import_module(f"fluids_props.{m}") for m in ("water", "seawater", "air", "gases")
+    water, seawater, glycerol_water, air, gases = (
+        importlib.import_module(f"fluids_props.{m}")
+        for m in ("water", "seawater", "glycerol_water", "air", "gases")
     )
-    infos: list[FluidInfo] = [water.FLUID_INFO, seawater.FLUID_INFO, air.FLUID_INFO]
+    infos: list[FluidInfo] = [water.FLUID_INFO, seawater.FLUID_INFO, glycerol_water.FLUID_INFO,
+                              air.FLUID_INFO]
     infos.extend(gases.builtin_fluid_infos())
     infos.extend(gases.optional_fluid_infos())
     return tuple(infos)
@@ -35,7 +37,9 @@ def get_fluid(name: str) -> FluidInfo:
     """
     key = name.strip().lower().replace("-", "_").replace(" ", "_")
     aliases = {"water": "fresh_water", "freshwater": "fresh_water", "seawater": "sea_water",
-               "n2": "nitrogen"}
+               "n2": "nitrogen", "glycerol": "glycerol_water", "glycerin": "glycerol_water",
+               "glycerine": "glycerol_water", "water_glycerol": "glycerol_water",
+               "glycerol_solution": "glycerol_water"}
     key = aliases.get(key, key)
     fluids = list_fluids()
     for info in fluids:

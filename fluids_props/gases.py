@@ -50,7 +50,7 @@ from . import _helmholtz_gas as hg
 from .registry import FluidInfo
 from .state import FluidState
 from .units import to_si
-from .validity import OutOfRangeError, Range, check
+from .validity import OutOfRangeError, Range, check, common_shape
 
 N2_T_RANGE = Range("temperature", 65.0, 500.0, "K")
 N2_P_RANGE = Range("pressure", 1.0e3, 1.2e6, "Pa")
@@ -158,6 +158,7 @@ def nitrogen_si(temperature_K, pressure_Pa=101325.0, extrapolate=False, **_) -> 
     1. Span et al. (2000), J. Phys. Chem. Ref. Data 29, 1361-1433.
     2. Lemmon & Jacobsen (2004), Int. J. Thermophys. 25, 21-69.
     """
+    common_shape("nitrogen", temperature=temperature_K, pressure=pressure_Pa)
     T, p = np.broadcast_arrays(np.asarray(temperature_K, dtype=float),
                                np.asarray(pressure_Pa, dtype=float))
     check(T, N2_T_RANGE, "nitrogen", extrapolate)
@@ -280,6 +281,7 @@ def coolprop_fluid_si(name: str, temperature_K, pressure_Pa=101325.0, extrapolat
     cp = _coolprop()
     key = name.strip().lower()
     cp_name = COOLPROP_GASES[key][0] if key in COOLPROP_GASES else name.strip()
+    common_shape(f"coolprop:{key}", temperature=temperature_K, pressure=pressure_Pa)
     T, p = np.broadcast_arrays(np.asarray(temperature_K, dtype=float),
                                np.asarray(pressure_Pa, dtype=float))
     shape = T.shape

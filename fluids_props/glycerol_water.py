@@ -46,7 +46,7 @@ from . import water
 from .registry import FluidInfo
 from .state import FluidState
 from .units import to_si
-from .validity import Range, check
+from .validity import Range, check, common_shape
 
 T_RANGE = Range("temperature", 273.15, 373.15, "K")
 W_RANGE = Range("mass_fraction", 0.0, 1.0, "kg/kg")
@@ -195,6 +195,7 @@ def glycerol_water_si(temperature_K, pressure_Pa=water.P0, mass_fraction=0.5,
     T = np.asarray(temperature_K, dtype=float)
     p = np.asarray(pressure_Pa, dtype=float)
     c = np.asarray(mass_fraction, dtype=float)
+    common_shape("glycerol_water", temperature=T, pressure=p, mass_fraction=c)
     check(T, T_RANGE, "glycerol_water", extrapolate)
     check(c, W_RANGE, "glycerol_water", extrapolate)
     shape = np.broadcast_shapes(T.shape, p.shape, c.shape)

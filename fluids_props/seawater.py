@@ -71,7 +71,7 @@ from . import water
 from .registry import FluidInfo
 from .state import FluidState
 from .units import to_si
-from .validity import Range, check
+from .validity import Range, check, common_shape
 
 #: Temperature range [K], set by the pure-water part (IAPWS SR7-09).
 T_RANGE = Range("temperature", 273.15, 313.15, "K")
@@ -392,6 +392,7 @@ def sea_water_si(temperature_K, pressure_Pa=water.P0, salinity=S_REFERENCE, extr
     T = np.asarray(temperature_K, dtype=float)
     p = np.asarray(pressure_Pa, dtype=float)
     S = np.asarray(salinity, dtype=float)
+    common_shape("sea_water", temperature=T, pressure=p, salinity=S)
     check(T, T_RANGE, "sea_water", extrapolate)
     check(S, S_RANGE, "sea_water", extrapolate)
     check(p, P_RANGE, "sea_water", extrapolate)

@@ -11,6 +11,36 @@ class OutOfRangeError(ValueError):
     """An input lies outside the validity range of a correlation."""
 
 
+class ShapeMismatchError(ValueError):
+    """Array inputs whose shapes do not broadcast together."""
+
+
+def common_shape(where: str, **inputs) -> tuple[int, ...]:
+    """The broadcast shape of named array inputs, or a one-line error naming them.
+
+    Parameters
+    ----------
+    where : str
+        Name of the fluid, for the message.
+    **inputs : array_like
+        The inputs by name (``temperature=..., pressure=...``).
+
+    Raises
+    ------
+    ShapeMismatchError
+        When numpy cannot broadcast the shapes together.
+    """
+    shapes = {k: np.shape(v) for k, v in inputs.items()}
+    try:
+        return np.broadcast_shapes(*shapes.values())
+    except ValueError:
+        listed = ", ".join(f"{k} {v}" for k, v in shapes.items())
+        raise ShapeMismatchError(
+            f"{where}: input shapes do not broadcast ({listed}); expected equal shapes, scalars,"
+            " or shapes numpy broadcasts such as (3,) with (2, 1)"
+        ) from None
+
+
 @dataclass(frozen=True)
 class Range:
     """Closed validity interval of one input, in SI.
@@ -50,9 +80,10 @@ class Range:
 
 
 def check(values, rng: Range, where: str, extrapolate: bool = False) -> None:
-    """Raise :class:`OutOfRangeError` if any finite value lies outside ``rng``.
+    """Raise :class:`OutOfRangeError` if any value other than NaN lies outside ``rng``.
 
     NaN input passes through (it propagates to NaN output); only the user can put it there.
+    An infinite value is outside every range and is refused.
 
     Parameters
     ----------
@@ -68,7 +99,7 @@ def check(values, rng: Range, where: str, extrapolate: bool = False) -> None:
     if extrapolate:
         return
     arr = np.asarray(values, dtype=float)
-    bad = np.isfinite(arr) & ((arr < rng.low) | (arr > rng.high))
+    bad = ~np.isnan(arr) & ((arr < rng.low) | (arr > rng.high))
     if np.any(bad):
         first = float(arr[bad].flat[0]) if arr.ndim else float(arr)
         raise OutOfRangeError(

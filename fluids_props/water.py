@@ -75,7 +75,7 @@ import numpy as np
 from .registry import FluidInfo
 from .state import FluidState
 from .units import to_si
-from .validity import Range, check
+from .validity import Range, check, common_shape
 
 #: Temperature range of the fluid [K] (IAPWS SR7-09 holds to 313.15 K).
 T_RANGE = Range("temperature", 273.15, 313.15, "K")
@@ -401,6 +401,7 @@ def fresh_water_si(temperature_K, pressure_Pa=P0, extrapolate=False, **_) -> Flu
     """
     T = np.asarray(temperature_K, dtype=float)
     p = np.asarray(pressure_Pa, dtype=float)
+    common_shape("fresh_water", temperature=T, pressure=p)
     check(T, T_RANGE, "fresh_water", extrapolate)
     check(p, P_RANGE, "fresh_water", extrapolate)
     if p.ndim == 0:

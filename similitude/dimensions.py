@@ -35,6 +35,7 @@ V, U, v, u, W, Vs                   velocity
 L, D, d, l, B, b, x, y, z, r, R     length (D, L also force: drag, lift; R resistance)
 c                                   length (chord), else speed of sound
 h, H (with a length dimension)      depth (h); wave height (H, H_s, Hs)
+h, h_c, alpha_h (W/(m^2 K))         heat-transfer coefficient
 A                                   area, else amplitude
 a, c_s, cs, a0, c0                  speed of sound (a: else amplitude)
 eps, epsilon, k_s, ks, e, k         roughness (k: else thermal conductivity)
@@ -49,6 +50,7 @@ nu                                  kinematic viscosity
 mu, eta                             dynamic viscosity
 alpha, kappa                        thermal diffusivity (alpha: else angle)
 g                                   gravity
+g', g_r, g_red, gprime              reduced gravity g*drho/rho (densimetric Froude)
 sigma, gamma                        surface tension
 p, p0, p_inf                        pressure
 dp, delta_p, Dp                     pressure difference
@@ -58,6 +60,7 @@ E, Y                                elastic modulus (E: else energy)
 K                                   bulk modulus
 F, X, Fx, Fy, Fz, R_T, Rt, Fd       force
 Q                                   torque, else flow rate
+q                                   discharge per unit width (open channels)
 M                                   torque (moment), else mass
 m                                   mass
 P                                   power, else pressure
@@ -71,7 +74,8 @@ Greek letters may be written as Unicode (``ρ``, ``ν``, ``μ``, ``σ``, ``Ω``,
 Default repeating variables
 ---------------------------
 As an engineer chooses them: a density, then a rotation rate when there is one (propeller
-coefficients K_T, K_Q, J are based on n and D [4]_) or else a velocity, then the principal
+coefficients K_T, K_Q, J are based on n and D [4]_) or else a velocity (a flow rate when there
+is no velocity: pipe and open-channel flow), then the principal
 length (D before L, so pipe flow gives Re on the diameter [2]_), then material and field
 properties, and only as a last resort the dependent quantities (force, torque, power,
 pressure). Each chosen variable must add to the rank of the set.
@@ -131,7 +135,8 @@ _add("L D", "length force")
 _add("d l B b x y z r", "length")
 _add("R", "force length")
 _add("c", "length speed_of_sound")
-_add("h", "depth")
+_add("h", "depth heat_transfer_coefficient")
+_add("h_c hc alpha_h", "heat_transfer_coefficient")
 _add("H H_s Hs", "wave_height")
 _add("A", "area amplitude")
 _add("a", "speed_of_sound amplitude")
@@ -151,6 +156,7 @@ _add("mu eta", "dynamic_viscosity")
 _add("alpha", "thermal_diffusivity angle")
 _add("kappa", "thermal_diffusivity")
 _add("g", "gravity")
+_add("g' g_r gr g_red gprime g_prime g_reduced", "reduced_gravity")
 _add("sigma gamma", "surface_tension")
 _add("p p0 p_0 p_inf p_a", "pressure")
 _add("dp delta_p Dp deltap", "pressure_difference")
@@ -162,6 +168,7 @@ _add("F X Fx Fy Fz R_T Rt RT Fd F_D", "force")
 _add("Q", "torque flow_rate")
 _add("M", "torque mass")
 _add("m", "mass")
+_add("q", "unit_discharge")
 _add("P", "power pressure")
 _add("beta", "thermal_expansion")
 _add("dT delta_T DT", "temperature_difference")
@@ -185,6 +192,8 @@ _ROLE_ALIASES = {
     "drag": "force", "lift": "force", "resistance": "force", "moment": "torque",
     "wave_period": "period", "coriolis_parameter": "angular_velocity",
     "sound_speed": "speed_of_sound", "viscosity": "dynamic_viscosity",
+    "heat_transfer": "heat_transfer_coefficient", "film_coefficient": "heat_transfer_coefficient",
+    "buoyancy": "reduced_gravity", "wave_frequency": "frequency",
 }
 
 
@@ -193,7 +202,7 @@ def _role_dimensionality(role: str):
 
 
 def _symbol_readings(symbol: str) -> tuple[str, ...]:
-    text = symbol.strip()
+    text = symbol.strip().replace("\u2032", "'")  # a typographic prime reads as g'
     for uni, ascii_name in _GREEK.items():
         text = text.replace(uni, ascii_name)
     if _CAVITATION_SYMBOL.match(text) or text.lower() in _CAVITATION_NAMES:
@@ -441,23 +450,27 @@ _BASE_ORDER = ("[mass]", "[length]", "[time]", "[temperature]", "[substance]", "
 _REPEAT_PRIORITY = {
     "density": 0, "rotation_rate": 10, "velocity": 11,
     "length": 20, "depth": 21, "area": 22, "wave_height": 23, "amplitude": 24,
-    "dynamic_viscosity": 30, "kinematic_viscosity": 31, "gravity": 32, "surface_tension": 33,
+    "dynamic_viscosity": 30, "kinematic_viscosity": 31, "gravity": 32, "reduced_gravity": 32,
+    "surface_tension": 33,
     "speed_of_sound": 34, "elastic_modulus": 35, "bulk_modulus": 36, "frequency": 37,
     "period": 38, "angular_velocity": 39, "buoyancy_frequency": 40, "temperature_difference": 41,
     "temperature": 42, "thermal_conductivity": 43, "specific_heat": 44,
     "thermal_diffusivity": 45, "thermal_expansion": 46, "acceleration": 47, "time": 48,
     "density_difference": 49,
-    "roughness": 60, "volume": 62, "mass": 70, "flow_rate": 71, "pressure": 72,
+    "roughness": 60, "volume": 62, "mass": 70, "flow_rate": 71, "unit_discharge": 71,
+    "pressure": 72,
     "pressure_difference": 73, "cavitation_pressure": 74, "vapour_pressure": 75, "energy": 76,
-    "power": 77, "torque": 78, "thrust": 79, "force": 80,
+    "power": 77, "torque": 78, "thrust": 79, "force": 80, "heat_transfer_coefficient": 81,
 }
 _LENGTH_SYMBOL_ORDER = ("D", "d", "L", "l", "c")
 
 
-def _repeat_key(var: _Var, index: int, has_rotation: bool) -> tuple:
+def _repeat_key(var: _Var, index: int, has_rotation: bool, has_velocity: bool = True) -> tuple:
     prio = _REPEAT_PRIORITY.get(var.role, 50) if var.role else 50
     if var.role == "velocity" and has_rotation:
         prio = 25  # propeller practice: n and D repeat, V_A enters through J
+    if var.role in ("flow_rate", "unit_discharge") and not has_velocity and not has_rotation:
+        prio = 12  # pipe and channel flow: the flow rate stands for the velocity
     sub = 9
     if var.role == "length":
         base = var.symbol.split("_")[0]
@@ -524,9 +537,10 @@ def _check_repeating(repeating, vars_: list[_Var], dims, full_rank) -> list[int]
 
 def _default_repeating(vars_: list[_Var], dims, full_rank) -> list[int]:
     has_rotation = any(v.role == "rotation_rate" for v in vars_)
+    has_velocity = any(v.role == "velocity" for v in vars_)
     order = sorted(
         (i for i, v in enumerate(vars_) if v.dims),
-        key=lambda i: _repeat_key(vars_[i], i, has_rotation),
+        key=lambda i: _repeat_key(vars_[i], i, has_rotation, has_velocity),
     )
     chosen: list[int] = []
     for i in order:
@@ -612,6 +626,11 @@ def _build_group(exps: dict[str, Fraction], vars_: list[_Var], index: int) -> Gr
     exps = {s: Fraction(e) for s, e in exps.items() if e != 0}
     order = [v.symbol for v in vars_]
     match = _catalogue.lookup(_role_vector(exps, by_symbol))
+    if match is not None and match.group.key == "cavitation" and match.generalised and any(
+            v.role in ("pressure", "pressure_difference") for v in vars_):
+        # With the static pressure p a separate variable, p_v/(rho V^2/2) is not the
+        # cavitation number (p - p_v)/(rho V^2/2), which is no power product of the variables.
+        match = None
     if match is not None:
         exps = {s: e / match.power for s, e in exps.items()}
         form = match.group.forms[match.form]

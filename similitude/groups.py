@@ -77,6 +77,7 @@ ROLES: Mapping[str, tuple[str, str | None]] = MappingProxyType({
     "thermal_diffusivity": ("m^2/s", None),
     "dynamic_viscosity": ("Pa*s", None),
     "gravity": ("m/s^2", None),
+    "reduced_gravity": ("m/s^2", None),
     "acceleration": ("m/s^2", None),
     "surface_tension": ("N/m", None),
     "pressure": ("Pa", None),
@@ -92,10 +93,12 @@ ROLES: Mapping[str, tuple[str, str | None]] = MappingProxyType({
     "energy": ("J", None),
     "mass": ("kg", None),
     "flow_rate": ("m^3/s", None),
+    "unit_discharge": ("m^2/s", None),
     "temperature": ("K", None),
     "temperature_difference": ("K", None),
     "thermal_expansion": ("1/K", None),
     "thermal_conductivity": ("W/(m*K)", None),
+    "heat_transfer_coefficient": ("W/(m^2*K)", None),
     "specific_heat": ("J/(kg*K)", None),
     "angle": ("rad", None),
 })
@@ -145,6 +148,9 @@ class NamedGroup:
         The ratio of effects the group measures.
     regimes : str
         Regime thresholds in use, each with its source and confidence.
+    specific : bool
+        True when the group is matched only with its own roles, never their parents (the
+        wave steepness needs a wave height, not any length).
     """
 
     key: str
@@ -155,6 +161,7 @@ class NamedGroup:
     factors: tuple[Fraction, ...]
     meaning: str
     regimes: str
+    specific: bool = False
 
     @property
     def roles(self) -> dict[str, Fraction]:
@@ -162,10 +169,11 @@ class NamedGroup:
         return dict(self.forms[0])
 
 
-def _g(key, name, symbol, definition, forms, meaning, regimes, factors=None) -> NamedGroup:
+def _g(key, name, symbol, definition, forms, meaning, regimes, factors=None,
+       specific=False) -> NamedGroup:
     parsed = tuple(_form(f) for f in forms)
     fac = tuple(Fraction(f) for f in (factors or [1] * len(parsed)))
-    return NamedGroup(key, name, symbol, definition, parsed, fac, meaning, regimes)
+    return NamedGroup(key, name, symbol, definition, parsed, fac, meaning, regimes, specific)
 
 
 CATALOGUE: tuple[NamedGroup, ...] = (
@@ -175,10 +183,19 @@ CATALOGUE: tuple[NamedGroup, ...] = (
        "Ship wave resistance rises steeply near Fn = 0.4-0.5 (hull-speed hump) [common practice; "
        "Newman 1977 ch. 6]. Matched in all towing-tank and wave-basin tests (ITTC 7.5-02-02-01)."),
     _g("depth_froude", "depth Froude number", "Fh", "V/sqrt(g*h)",
-       ["velocity 1, gravity -1/2, depth -1/2"],
+       ["velocity 1, gravity -1/2, depth -1/2",
+        "flow_rate 1, length -1, gravity -1/2, depth -3/2",
+        "unit_discharge 1, gravity -1/2, depth -3/2"],
        "speed / shallow-water wave speed sqrt(g h)",
        "Critical at Fh = 1 (shallow-water wave speed; Newman 1977 sec. 6.9); deep-water speed "
-       "trials require Fh < ~0.6 (ITTC 7.5-04-01-01.1, from memory)."),
+       "trials require Fh < ~0.6 (ITTC 7.5-04-01-01.1, from memory). In an open channel of "
+       "width b the flow rate Q gives V = Q/(b h), Fh = Q/(b*sqrt(g*h**3)), and the discharge "
+       "per unit width q gives Fh = q/sqrt(g*h**3) (Chow 1959, Open-Channel Hydraulics, ch. 3)."),
+    _g("densimetric_froude", "densimetric Froude number", "Fr_d", "U/sqrt(g'*L)",
+       ["velocity 1, reduced_gravity -1/2, length -1/2"],
+       "inertia / buoyancy with the reduced gravity g' = g*drho/rho of a density interface",
+       "Internal hydraulic jump and control at Fr_d = 1 (Turner 1973, Buoyancy Effects in "
+       "Fluids, ch. 3, from memory); equals Ri**(-1/2) of the bulk Richardson number."),
     _g("rotational_froude", "rotational Froude number", "Fr_n", "n*sqrt(D/g)",
        ["rotation_rate 1, length 1/2, gravity -1/2"],
        "rotational inertia / gravity for a propeller or rotor",
@@ -188,8 +205,13 @@ CATALOGUE: tuple[NamedGroup, ...] = (
        ["velocity 1, length 1, kinematic_viscosity -1",
         "density 1, velocity 1, length 1, dynamic_viscosity -1",
         "velocity 1, area 1/2, kinematic_viscosity -1",
-        "density 1, velocity 1, area 1/2, dynamic_viscosity -1"],
-       "inertia / viscous forces (with an area, on its square root)",
+        "density 1, velocity 1, area 1/2, dynamic_viscosity -1",
+        "flow_rate 1, length -1, kinematic_viscosity -1",
+        "density 1, flow_rate 1, length -1, dynamic_viscosity -1",
+        "unit_discharge 1, kinematic_viscosity -1"],
+       "inertia / viscous forces (with an area, on its square root; with a pipe flow rate Q, "
+       "Q/(D*nu), which is pi/4 times V*D/nu on the mean velocity 4Q/(pi D^2); in an open "
+       "channel q/nu = V*h/nu)",
        "Pipe flow laminar below about 2300 (White 2011 sec. 6.1); flat-plate transition "
        "Re_x ~ 5e5-5e6 (Schlichting & Gersten 2000); ship models kept above ~2-3e6 with "
        "turbulence stimulation [common practice]; sphere drag crisis near Re ~ 3e5 "
@@ -205,6 +227,10 @@ CATALOGUE: tuple[NamedGroup, ...] = (
        "flow speed / speed of sound; compressibility",
        "Density change below 5 % for Ma < 0.3 (isentropic relation, Anderson 2003); "
        "transonic from about 0.8, sonic at 1."),
+    _g("helmholtz", "Helmholtz number", "He", "f*L/a",
+       ["frequency 1, length 1, speed_of_sound -1"],
+       "body size / acoustic wave length (times 2 pi: k L)",
+       "Acoustically compact source for He << 1 (Pierce 1989, Acoustics, ch. 4, from memory)."),
     _g("weber", "Weber number", "We", "rho*V**2*L/sigma",
        ["density 1, velocity 2, length 1, surface_tension -1"],
        "inertia / surface tension",
@@ -219,8 +245,10 @@ CATALOGUE: tuple[NamedGroup, ...] = (
        "(ITTC 7.5-02-03-03.1).",
        factors=[2, 2]),
     _g("euler", "Euler number", "Eu", "dp/(rho*V**2)",
-       ["pressure_difference 1, density -1, velocity -2"],
-       "pressure difference / dynamic pressure (twice the pressure coefficient)",
+       ["pressure_difference 1, density -1, velocity -2",
+        "pressure_difference 1, length 4, density -1, flow_rate -2"],
+       "pressure difference / dynamic pressure (twice the pressure coefficient; with a flow "
+       "rate Q through a diameter D, dp*D**4/(rho*Q**2))",
        "Depends on geometry and Re only, when cavitation and free surface are absent "
        "(White 2011 sec. 5.2)."),
     _g("strouhal", "Strouhal number", "St", "f*L/V",
@@ -234,6 +262,19 @@ CATALOGUE: tuple[NamedGroup, ...] = (
        "amplitude of oscillatory flow / body size",
        "Drag dominated for KC > ~25, inertia dominated for KC < ~5 [common practice; after "
        "Keulegan & Carpenter 1958, from memory]."),
+    _g("wave_steepness", "wave steepness", "H/(g*T**2)", "H/(g*T**2)",
+       ["wave_height 1, gravity -1, period -2"],
+       "wave height / deep-water wave length scale g T^2 (2 pi H/(g T^2) = H/L_0)",
+       "Deep-water waves break near H/L_0 = 1/7, i.e. H/(g T^2) = 0.027 (Michell 1893 limit, "
+       "as charted by Le Mehaute 1976, An Introduction to Hydrodynamics and Water Waves, "
+       "fig. 15.1, from memory).",
+       specific=True),
+    _g("relative_depth", "relative water depth", "h/(g*T**2)", "h/(g*T**2)",
+       ["depth 1, gravity -1, period -2"],
+       "water depth / deep-water wave length scale g T^2",
+       "Deep water for h/(g T^2) > 0.08 (h/L_0 > 1/2), shallow water below 0.0025 "
+       "(h/L_0 < 1/20, approximately) (Le Mehaute 1976 fig. 15.1, from memory).",
+       specific=True),
     _g("advance_ratio", "advance ratio", "J", "V/(n*D)",
        ["velocity 1, rotation_rate -1, length -1"],
        "advance per revolution / diameter",
@@ -243,12 +284,20 @@ CATALOGUE: tuple[NamedGroup, ...] = (
        ["velocity 1, angular_velocity -1, length -1"],
        "inertia / Coriolis force",
        "Rotation dominant for Ro << 1 (Batchelor 1967 sec. 7.6)."),
+    _g("ekman", "Ekman number", "Ek", "nu/(Omega*L**2)",
+       ["kinematic_viscosity 1, angular_velocity -1, length -2",
+        "dynamic_viscosity 1, density -1, angular_velocity -1, length -2"],
+       "viscous / Coriolis forces (Ro/Re)",
+       "Ekman-layer thickness ~ L*Ek**(1/2); rotating-tank models need Ek << 1 (Greenspan "
+       "1968, The Theory of Rotating Fluids, ch. 1, from memory)."),
     _g("richardson", "Richardson number", "Ri", "g*drho*L/(rho*U**2)",
        ["gravity 1, density_difference 1, length 1, density -1, velocity -2",
         "buoyancy_frequency 2, length 2, velocity -2"],
        "buoyancy (stratification) / inertia (shear)",
        "Stratified shear flow linearly stable where the gradient Ri > 1/4 everywhere "
-       "(Miles-Howard criterion; Miles 1961, J. Fluid Mech. 10:496)."),
+       "(Miles-Howard criterion; Miles 1961, J. Fluid Mech. 10:496). With the buoyancy "
+       "frequency, U/(N*L) = Ri**(-1/2) is the internal Froude number of stratified flow past "
+       "an obstacle (Turner 1973, from memory)."),
     _g("cauchy", "Cauchy number", "Ca", "rho*V**2/E",
        ["density 1, velocity 2, elastic_modulus -1"],
        "inertia / elastic forces (equal to Ma^2 for a fluid's bulk modulus)",
@@ -286,12 +335,28 @@ CATALOGUE: tuple[NamedGroup, ...] = (
         "dynamic_viscosity 1, specific_heat 1, thermal_conductivity -1"],
        "momentum diffusivity / thermal diffusivity",
        "About 0.7 for air and 7 for water at 20 degC (White 2011 table A.1-A.2, from memory)."),
+    _g("nusselt", "Nusselt number", "Nu", "h*L/k",
+       ["heat_transfer_coefficient 1, length 1, thermal_conductivity -1"],
+       "convective / conductive heat transfer across the fluid layer",
+       "Nu = 1 for pure conduction; laminar flat plate Nu_x = 0.332 Re_x^(1/2) Pr^(1/3) "
+       "(Incropera & DeWitt 2007, Fundamentals of Heat and Mass Transfer, ch. 7, from memory)."),
+    _g("peclet", "Peclet number", "Pe", "V*L/alpha",
+       ["velocity 1, length 1, thermal_diffusivity -1"],
+       "advective / diffusive heat transport (Re*Pr)",
+       "Conduction along the flow negligible for Pe >> 1 (Incropera & DeWitt 2007, from "
+       "memory)."),
     _g("grashof", "Grashof number", "Gr", "g*beta*dT*L**3/nu**2",
        ["gravity 1, thermal_expansion 1, temperature_difference 1, length 3, "
         "kinematic_viscosity -2"],
        "buoyancy / viscous forces in natural convection",
        "Vertical-plate laminar-turbulent transition near Gr Pr ~ 1e9 (Incropera & DeWitt 2007, "
        "Fundamentals of Heat and Mass Transfer, from memory)."),
+    _g("rayleigh", "Rayleigh number", "Ra", "g*beta*dT*L**3/(nu*alpha)",
+       ["gravity 1, thermal_expansion 1, temperature_difference 1, length 3, "
+        "kinematic_viscosity -1, thermal_diffusivity -1"],
+       "buoyancy / (viscous x thermal diffusion) in natural convection (Gr*Pr)",
+       "Rayleigh-Benard convection sets in at Ra = 1708 between rigid plates (Chandrasekhar "
+       "1961, Hydrodynamic and Hydromagnetic Stability, ch. 2, from memory)."),
     _g("relative_roughness", "relative roughness", "eps/D", "eps/D",
        ["roughness 1, length -1"],
        "roughness height / reference length",
@@ -396,7 +461,12 @@ def lookup(role_exponents: Mapping[str, Fraction | int]) -> GroupMatch | None:
             continue
         for order, group in enumerate(CATALOGUE):
             for i, form in enumerate(group.forms):
-                k = _proportional(vec, _generalise(form) if generalised else form)
+                target = _generalise(form) if generalised else form
+                # A form naming two roles of one parent (a width and a depth) is not matched by
+                # parent roles: the merged form would name a group on the wrong length.
+                if generalised and (group.specific or len(target) < len(form)):
+                    continue
+                k = _proportional(vec, target)
                 if k is None:
                     continue
                 rank = (generalised, k != 1, k < 0, abs(k), order, i)

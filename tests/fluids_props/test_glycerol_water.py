@@ -2,15 +2,20 @@
 
 from __future__ import annotations
 
+import importlib
+
 import CoolProp.CoolProp as CP
 import numpy as np
 import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
+import fluids_props as fp
 from fluids_props import OutOfRangeError
-from fluids_props import glycerol_water as gw
 from fluids_props import water as w
+
+# The package exports the function glycerol_water, which shadows the module attribute.
+gw = importlib.import_module("fluids_props.glycerol_water")
 
 
 def _melinder(prop, t_c, c):
@@ -90,3 +95,30 @@ def test_more_glycerol_means_denser_and_more_viscous(T, a, b):
     if hi - lo > 1e-3:
         assert gw.density(T, hi) > gw.density(T, lo)
         assert gw.dynamic_viscosity(T, hi) > gw.dynamic_viscosity(T, lo)
+
+
+def test_package_exports_the_glycerol_water_function():
+    # Same result through the package entry point as through the module (self-consistency).
+    s = fp.glycerol_water("20 degC", 0.5)
+    assert s.density.to("kg/m^3").magnitude == pytest.approx(float(gw.density(293.15, 0.5)),
+                                                              rel=1e-12)
+
+
+@pytest.mark.parametrize("spelling", ["glycerol_water", "glycerol-water", "Glycerol Water",
+                                      "glycerol", "glycerine"])
+def test_catalogue_finds_glycerol_water_by_its_usual_spellings(spelling):
+    assert fp.get_fluid(spelling).name == "glycerol_water"
+
+
+def test_catalogue_lists_glycerol_water_with_its_validity_ranges():
+    info = next(f for f in fp.list_fluids() if f.name == "glycerol_water")
+    # Cheng (2008) viscosity fit: 0-100 degC, 0-1 kg/kg glycerol
+    t, c = info.range_of("temperature"), info.range_of("mass_fraction")
+    assert (t.low, t.high, c.low, c.high) == (273.15, 373.15, 0.0, 1.0)
+
+
+def test_catalogue_evaluation_takes_the_mass_fraction():
+    info = fp.get_fluid("glycerol-water")
+    s = info.evaluate_si(293.15, 101325.0, mass_fraction=0.6)
+    # Segur & Oberstar (1951) 20 degC, 60 % glycerol: 10.8 mPa s (from memory, 2 %)
+    assert float(s.dynamic_viscosity_si) * 1e3 == pytest.approx(10.8, rel=0.02)

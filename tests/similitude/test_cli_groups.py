@@ -119,3 +119,36 @@ def test_balance_bad_file_exits_two(tmp_path, capsys, text, fragment):
 def test_balance_missing_file_exits_two(tmp_path, capsys):
     assert main(["balance", str(tmp_path / "none.toml")]) == 2
     assert "cannot read" in capsys.readouterr().err
+
+
+def test_groups_names_heat_transfer_groups(capsys):
+    # Nu = hL/k, Re = VL/nu, Pe = VL/alpha (Incropera & DeWitt 2007, from memory)
+    argv = ["groups", "h=W/(m^2*K)", "k=W/(m*K)", "L=m", "V=m/s", "nu=m^2/s", "alpha=m^2/s"]
+    assert main(argv) == 0
+    out = capsys.readouterr().out
+    for name in ("Nusselt number", "Reynolds number", "Peclet number"):
+        assert name in out
+    assert "h*L/k" in out
+
+
+def test_groups_reads_a_reduced_gravity_and_names_the_densimetric_froude_number(capsys):
+    # Fr_d = U/sqrt(g' L) (Turner 1973, from memory)
+    assert main(["groups", "U=m/s", "L=m", "g'=m/s^2", "--json"]) == 0
+    g = json.loads(capsys.readouterr().out)["groups"][0]
+    assert (g["key"], g["exponents"]) == ("densimetric_froude",
+                                         {"U": "1", "g'": "-1/2", "L": "-1/2"})
+
+
+def test_groups_with_a_role_suffix_that_does_not_fit_the_unit_exits_two(capsys):
+    assert main(["groups", "V=m/s:kinematic_viscosity", "L=m"]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith("error:") and "needs dimension" in err
+
+
+def test_balance_term_of_another_dimension_exits_two_naming_both(tmp_path, capsys):
+    f = tmp_path / "bad.toml"
+    f.write_text('[terms]\na = "U**2/L"\nb = "g*L"\n[prototype]\nU = "1 m/s"\nL = "1 m"\n'
+                 'g = "9.81 m/s^2"\n')
+    assert main(["balance", str(f)]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith("error:") and "terms.b" in err and "[length] / [time] ** 2" in err

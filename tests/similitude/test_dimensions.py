@@ -408,6 +408,8 @@ POOL = {
     "f": "Hz", "n": "1/s", "Omega": "rad/s", "F": "N", "T": "N", "Q": "N*m", "P": "W",
     "E": "Pa", "h": "m", "eps": "m", "drho": "kg/m^3", "beta": "1/K", "dT": "K",
     "alpha": "m^2/s", "t": "s", "A": "m^2", "m": "kg", "k": "W/(m*K)", "cp": "J/(kg*K)",
+    "h_c": "W/(m^2*K)", "g_r": "m/s^2", "N": "1/s", "b": "m", "H": "m", "T_w": "s",
+    "q": "m^3/s",
 }
 
 
@@ -442,3 +444,190 @@ def test_groups_are_hashable_and_compare_by_content():
     a = pi_groups({"V": "m/s", "L": "m", "nu": "m^2/s"})
     b = pi_groups({"V": "m/s", "L": "m", "nu": "m^2/s"})
     assert set(a) == set(b)
+
+
+# --- further engineering sets: names, orientation and powers ---------------------------------
+# Each set: the variables, then the groups as (symbol, exponents) an engineer writes them.
+# Sources as cited per set; span and count are also checked against pint.pi_theorem.
+
+FURTHER_SETS = {
+    # drag with compressibility: C_F = f(Re, Ma) (Anderson 2003, Modern Compressible Flow, ch. 1;
+    # White 2011 sec. 5.3)
+    "compressible drag": (
+        {"F": "N", "rho": "kg/m^3", "V": "m/s", "L": "m", "mu": "Pa*s", "a": "m/s"},
+        [("C_F", {"F": 1, "rho": -1, "V": -2, "L": -2}),
+         ("Re", {"rho": 1, "V": 1, "L": 1, "mu": -1}),
+         ("Ma", {"V": 1, "a": -1})]),
+    # wave loads on a pile: C_F = f(KC, Re, Fr, wave steepness) (Keulegan & Carpenter 1958;
+    # Le Mehaute 1976 fig. 15.1 for H/(g T^2), from memory)
+    "pile in waves": (
+        {"F": "N", "rho": "kg/m^3", "U": "m/s", "D": "m", "T": "s", "H": "m", "g": "m/s^2",
+         "nu": "m^2/s"},
+        [("C_F", {"F": 1, "rho": -1, "U": -2, "D": -2}),
+         ("KC", {"U": 1, "T": 1, "D": -1}),
+         ("H/(g*T**2)", {"H": 1, "g": -1, "T": -2}),
+         ("Fr", {"U": 1, "g": Fraction(-1, 2), "D": Fraction(-1, 2)}),
+         ("Re", {"U": 1, "D": 1, "nu": -1})]),
+    # propeller: K_T, K_Q = f(J, Re_n, Fr_n, sigma_n) (Carlton 2007 ch. 6; ITTC Symbols 2017)
+    "propeller": (
+        {"T": "N", "Q": "N*m", "n": "1/s", "D": "m", "V": "m/s", "rho": "kg/m^3",
+         "mu": "Pa*s", "g": "m/s^2", "p-p_v": "Pa"},
+        [("K_T", {"T": 1, "rho": -1, "n": -2, "D": -4}),
+         ("K_Q", {"Q": 1, "rho": -1, "n": -2, "D": -5}),
+         ("J", {"V": 1, "n": -1, "D": -1}),
+         ("Re_n", {"rho": 1, "n": 1, "D": 2, "mu": -1}),
+         ("Fr_n", {"n": 1, "D": Fraction(1, 2), "g": Fraction(-1, 2)}),
+         ("sigma_v", {"p-p_v": 1, "rho": -1, "n": -2, "D": -2})]),
+    # forced convection: Nu = f(Re, Pr) (Incropera & DeWitt 2007 ch. 6, from memory)
+    "forced convection": (
+        {"h": "W/(m^2*K)", "k": "W/(m*K)", "L": "m", "V": "m/s", "rho": "kg/m^3",
+         "mu": "Pa*s", "cp": "J/(kg*K)"},
+        [("Nu", {"h": 1, "L": 1, "k": -1}),
+         ("Re", {"rho": 1, "V": 1, "L": 1, "mu": -1}),
+         ("Pr", {"mu": 1, "cp": 1, "k": -1})]),
+    # rotating frame: Ro and Re (Batchelor 1967 sec. 7.6)
+    "rotating frame": (
+        {"U": "m/s", "L": "m", "Omega": "rad/s", "nu": "m^2/s"},
+        [("Ro", {"U": 1, "Omega": -1, "L": -1}), ("Re", {"U": 1, "L": 1, "nu": -1})]),
+    # stratified flow: Ri on N and the densimetric Froude number on g' (Turner 1973, Buoyancy
+    # Effects in Fluids, ch. 3, from memory)
+    "stratified": (
+        {"N": "1/s", "U": "m/s", "L": "m", "g'": "m/s^2"},
+        [("Ri", {"N": 2, "L": 2, "U": -2}),
+         ("Fr_d", {"U": 1, "g'": Fraction(-1, 2), "L": Fraction(-1, 2)})]),
+    # vortex shedding: St = f(Re) (White 2011 sec. 5.2)
+    "vortex shedding": (
+        {"f": "Hz", "D": "m", "V": "m/s", "nu": "m^2/s"},
+        [("St", {"f": 1, "D": 1, "V": -1}), ("Re", {"V": 1, "D": 1, "nu": -1})]),
+    # open channel: Fr = V/sqrt(g h) with V = Q/(b h), and the aspect ratio h/b (Chow 1959,
+    # Open-Channel Hydraulics, ch. 3)
+    "open channel": (
+        {"Q": "m^3/s", "g": "m/s^2", "b": "m", "h": "m"},
+        [("Fh", {"Q": 1, "b": -1, "g": Fraction(-1, 2), "h": Fraction(-3, 2)}),
+         ("Pi2", {"h": 1, "b": -1})]),
+    # elasticity: Cauchy number rho V^2 / E (White 2011 sec. 5.2)
+    "elasticity": (
+        {"E": "Pa", "rho": "kg/m^3", "V": "m/s", "L": "m"},
+        [("Ca", {"rho": 1, "V": 2, "E": -1})]),
+    # deep/shallow-water waves: the two axes of Le Mehaute's chart, H/(g T^2) and h/(g T^2)
+    # (Le Mehaute 1976 fig. 15.1, from memory)
+    "regular waves": (
+        {"H": "m", "T": "s", "g": "m/s^2", "h": "m"},
+        [("H/(g*T**2)", {"H": 1, "g": -1, "T": -2}), ("h/(g*T**2)", {"h": 1, "g": -1, "T": -2})]),
+    # pipe flow given by flow rate: Re on Q/D and the pressure-drop coefficient (White 2011
+    # sec. 6.8, Re = 4 Q/(pi D nu) up to the constant)
+    "pipe by flow rate": (
+        {"Q": "m^3/s", "D": "m", "dp": "Pa", "rho": "kg/m^3", "mu": "Pa*s"},
+        [("Eu", {"dp": 1, "D": 4, "rho": -1, "Q": -2}),
+         ("Re", {"rho": 1, "Q": 1, "D": -1, "mu": -1})]),
+    # natural convection with the heat-transfer coefficient: Nu = f(Gr, Pr) (Incropera &
+    # DeWitt 2007 ch. 9, from memory); beta*dT is the Boussinesq parameter
+    "natural convection": (
+        {"h": "W/(m^2*K)", "k": "W/(m*K)", "L": "m", "g": "m/s^2", "beta": "1/K", "dT": "K",
+         "nu": "m^2/s", "alpha": "m^2/s"},
+        [("Nu", {"h": 1, "L": 1, "k": -1}),
+         ("Gr", {"g": 1, "beta": 1, "dT": 1, "L": 3, "nu": -2}),
+         ("Pi3", {"beta": 1, "dT": 1}),
+         ("Pr", {"nu": 1, "alpha": -1})]),
+    # acoustics: Helmholtz number f L / a (Pierce 1989, Acoustics, ch. 4, from memory)
+    "acoustic source": (
+        {"f": "Hz", "L": "m", "a": "m/s"},
+        [("He", {"f": 1, "L": 1, "a": -1})]),
+    # rotating tank without a mean flow: Ekman number (Greenspan 1968 ch. 1, from memory)
+    "spin-up": (
+        {"Omega": "rad/s", "L": "m", "nu": "m^2/s"},
+        [("Ek", {"nu": 1, "Omega": -1, "L": -2})]),
+    # heat transfer with a thermal diffusivity: Nu = f(Re, Pe) (Incropera & DeWitt 2007)
+    "forced convection by diffusivities": (
+        {"h": "W/(m^2*K)", "k": "W/(m*K)", "L": "m", "V": "m/s", "nu": "m^2/s",
+         "alpha": "m^2/s"},
+        [("Nu", {"h": 1, "L": 1, "k": -1}), ("Re", {"V": 1, "L": 1, "nu": -1}),
+         ("Pe", {"V": 1, "L": 1, "alpha": -1})]),
+}
+
+
+@pytest.mark.parametrize("name", sorted(FURTHER_SETS))
+def test_further_sets_give_the_groups_an_engineer_writes(name):
+    variables, expected = FURTHER_SETS[name]
+    got = [(g.symbol, g.exponents) for g in pi_groups(variables)]
+    assert got == expected
+
+
+@pytest.mark.parametrize("name", sorted(FURTHER_SETS))
+def test_further_sets_agree_with_pint_in_count_and_span(name):
+    # reference: pint.pi_theorem on the same variables
+    variables, _ = FURTHER_SETS[name]
+    assert_same_span_as_pint(variables)
+
+
+@pytest.mark.parametrize("name", sorted(FURTHER_SETS))
+def test_further_sets_groups_are_dimensionless_by_pint(name):
+    variables, _ = FURTHER_SETS[name]
+    for g in pi_groups(variables):
+        assert pint_dimensionless(variables, g.exponents), str(g)
+
+
+def test_open_channel_froude_reads_as_written():
+    # Chow (1959) ch. 3: Fr = V/sqrt(g h), V = Q/(b h)
+    g = pi_groups({"Q": "m^3/s", "g": "m/s^2", "b": "m", "h": "m"})[0]
+    assert (g.name, g.expression) == ("depth Froude number", "Q/(b*h*sqrt(g*h))")
+
+
+def test_open_channel_froude_value_is_the_mean_velocity_froude_number():
+    # by hand: Q = 2 m^3/s, b = 2 m, h = 0.5 m -> V = 2 m/s, Fr = 2/sqrt(9.81*0.5) = 0.90317
+    g = pi_groups({"Q": "2 m^3/s", "g": "9.81 m/s^2", "b": "2 m", "h": "0.5 m"})[0]
+    assert g.value == pytest.approx(2.0 / (9.81 * 0.5) ** 0.5, rel=1e-12)
+
+
+def test_a_pendulum_length_is_not_read_as_a_wave_height():
+    # T, g, L: T*sqrt(g/L) is no wave steepness (that needs a wave height) -> unnamed
+    (g,) = pi_groups({"T": "s", "g": "m/s^2", "L": "m"})
+    assert g.name is None and g.exponents == {"T": 2, "g": 1, "L": -1}
+
+
+def test_heat_transfer_coefficient_is_read_from_h_by_its_unit():
+    # symbol convention: h with W/(m^2 K) is the film coefficient, with m the depth
+    assert infer_role("h", Q_(1, "W/(m^2*K)").dimensionality) == "heat_transfer_coefficient"
+    assert infer_role("h", Q_(1, "m").dimensionality) == "depth"
+
+
+def test_reduced_gravity_symbols_are_recognised():
+    for s in ("g'", "g_r", "gprime"):
+        assert infer_role(s, Q_(1, "m/s^2").dimensionality) == "reduced_gravity"
+
+
+def test_group_carries_exponents_name_symbol_expression_and_value():
+    # Re by hand: 2 m/s * 0.5 m / 1e-6 m^2/s = 1e6
+    g = pi_groups({"V": "2 m/s", "L": "0.5 m", "nu": "1e-6 m^2/s"})[0]
+    assert (g.exponents, g.name, g.symbol, g.expression) == (
+        {"V": 1, "L": 1, "nu": -1}, "Reynolds number", "Re", "V*L/nu")
+    assert g.value == pytest.approx(1e6, rel=1e-12)
+
+
+def test_discharge_per_unit_width_gives_the_channel_froude_and_reynolds_numbers():
+    # Chow (1959) ch. 1-3: Fr = q/sqrt(g h^3) = V/sqrt(g h), Re = V h/nu = q/nu
+    groups = pi_groups({"q": "m^2/s", "g": "m/s^2", "h": "m", "nu": "m^2/s"})
+    assert [(g.symbol, g.exponents) for g in groups] == [
+        ("Fh", {"q": 1, "g": Fraction(-1, 2), "h": Fraction(-3, 2)}),
+        ("Re", {"q": 1, "nu": -1})]
+
+
+def test_a_typographic_prime_reads_as_reduced_gravity():
+    assert infer_role("g\u2032", Q_(1, "m/s^2").dimensionality) == "reduced_gravity"
+
+
+def test_unicode_greek_symbols_give_the_same_groups():
+    # same wave-load set as above with rho and nu written in Greek
+    variables = {"F": "N", "ρ": "kg/m^3", "U": "m/s", "D": "m", "T": "s", "H": "m",
+                 "g": "m/s^2", "ν": "m^2/s"}
+    assert [g.symbol for g in pi_groups(variables)] == ["C_F", "KC", "H/(g*T**2)", "Fr", "Re"]
+    assert_same_span_as_pint(variables)
+
+
+def test_vapour_pressure_beside_a_static_pressure_is_not_called_the_cavitation_number():
+    # sigma_v = (p - p_v)/(rho V^2/2) (ITTC Symbols 2017) is no power product of p and p_v:
+    # with both given, the groups are Eu = p/(rho V^2) and an unnamed p_v group
+    groups = pi_groups({"V": "m/s", "L": "m", "rho": "kg/m^3", "p": "Pa", "p_v": "Pa"})
+    assert [g.key for g in groups] == ["euler", None]
+    assert groups[1].exponents == {"p_v": 1, "V": -2, "rho": -1}
+    assert_same_span_as_pint({"V": "m/s", "L": "m", "rho": "kg/m^3", "p": "Pa", "p_v": "Pa"})

@@ -33,6 +33,14 @@ def test_catalogue_holds_the_required_keys():
     ("advance_ratio", "advance ratio", "J"),
     ("thrust_coefficient", "thrust coefficient", "K_T"),
     ("torque_coefficient", "torque coefficient", "K_Q"),
+    # heat transfer and rotating/stratified flow: Incropera & DeWitt (2007); Greenspan (1968);
+    # Turner (1973); acoustics: Pierce (1989) (names and symbols from memory of the texts)
+    ("nusselt", "Nusselt number", "Nu"),
+    ("peclet", "Peclet number", "Pe"),
+    ("rayleigh", "Rayleigh number", "Ra"),
+    ("ekman", "Ekman number", "Ek"),
+    ("densimetric_froude", "densimetric Froude number", "Fr_d"),
+    ("helmholtz", "Helmholtz number", "He"),
 ])
 def test_trade_names_and_symbols(key, name, symbol):
     g = groups.get(key)
@@ -97,3 +105,23 @@ def test_lookup_returns_none_for_an_uncatalogued_product():
 def test_catalogue_table_lists_every_group():
     table = groups.catalogue()
     assert list(table["key"]) == list(groups.keys())
+
+
+def test_lookup_does_not_read_any_length_as_a_wave_height():
+    # the wave steepness H/(g T^2) is specific to a wave height (Le Mehaute 1976, from memory)
+    assert groups.lookup({"length": 1, "gravity": -1, "period": -2}) is None
+    assert groups.lookup({"wave_height": 1, "gravity": -1, "period": -2}).group.key == \
+        "wave_steepness"
+
+
+def test_lookup_does_not_merge_a_width_and_a_depth_into_one_length():
+    # Fh = Q/(b sqrt(g h^3)) needs both a width and a depth (Chow 1959 ch. 3)
+    assert groups.lookup({"flow_rate": 1, "gravity": Fraction(-1, 2),
+                          "length": Fraction(-5, 2)}) is None
+
+
+def test_lookup_identifies_rayleigh_as_grashof_times_prandtl():
+    # Ra = g beta dT L^3/(nu alpha) (Incropera & DeWitt 2007, from memory)
+    m = groups.lookup({"gravity": 1, "thermal_expansion": 1, "temperature_difference": 1,
+                       "length": 3, "kinematic_viscosity": -1, "thermal_diffusivity": -1})
+    assert (m.group.key, m.power) == ("rayleigh", 1)

@@ -16,7 +16,26 @@ from typing import Any
 import numpy as np
 import pint
 
-ureg = pint.get_application_registry()
+
+def _shared_registry():
+    """Return pint's application registry, installing a disk-cached one if pint's is unbuilt.
+
+    Building pint's default registry parses its definition file (~0.3 s on a quiet machine);
+    a registry with ``cache_folder=":auto:"`` reads the parsed result from the user cache
+    instead (~0.05 s). It becomes pint's application registry, so users, ``fluids_props`` and
+    ``similitude`` still share one registry. A registry the user built or set before this import
+    is kept as it is.
+    """
+    app = pint.get_application_registry()
+    if isinstance(app.get(), pint.registry.LazyRegistry):  # pint's own default, still unbuilt
+        try:
+            pint.set_application_registry(pint.UnitRegistry(cache_folder=":auto:"))
+        except Exception:  # noqa: BLE001 - unwritable or half-written cache: build without it
+            pint.set_application_registry(pint.UnitRegistry())
+    return app
+
+
+ureg = _shared_registry()
 Q_ = ureg.Quantity
 
 #: SI unit, per pint dimensionality, used for the inside of the packages.

@@ -26,6 +26,7 @@ from __future__ import annotations
 import datetime as _dt
 import difflib
 import math
+import re
 import tomllib
 from collections.abc import Mapping
 from pathlib import Path
@@ -284,6 +285,8 @@ class _Reader:
                 plain = str(q.units) in ("dimensionless", "")
                 si = float(q.magnitude) if plain else float(q.to(bare_unit).magnitude)
             else:
+                if dim == RATE and isinstance(value, str):
+                    value = _REV.sub("revolution", value)  # pint has no "rev"
                 si = to_si(value, dim, path)
                 if dim == RATE:
                     si = _revolutions_per_second(value, si)
@@ -369,6 +372,10 @@ class _Reader:
             self.problem(p, f"{_show(value)} is not valid; expected lowest <= highest")
             return None
         return (lo, hi)
+
+
+#: "rev" as in "rev/s" or "rev/min": the trade's abbreviation, unknown to pint.
+_REV = re.compile(r"\brevs?\b")
 
 
 def _revolutions_per_second(value: Any, si: float) -> float:

@@ -244,7 +244,12 @@ def _relevant_groups(prob) -> tuple[str, ...]:
 
     case = prob.case
     st = prob.proto.state
-    keys = set(case.request.exact) | set(case.request.report) | {"froude", "reynolds"}
+    keys = set(case.request.exact) | set(case.request.report) | {"reynolds"}
+    # Gravity matters with a free surface or in a liquid (hydrostatic pressure gradient, e.g.
+    # over a propeller disc); for a body in a gas the Froude number is left out unless asked.
+    if (case.facility.free_surface or st.surface_tension_si is not None
+            or case.prototype.kind in ("surface_ship", "offshore_structure")):
+        keys.add("froude")
     if st.speed_of_sound_si is not None:
         keys.add("mach")
     if st.surface_tension_si is not None and case.facility.free_surface:

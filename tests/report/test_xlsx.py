@@ -245,3 +245,18 @@ def test_number_format_follows_the_quantity():
     assert xlsx.number_format("prototype speed [kn]") == "0.00"
     assert xlsx.number_format("model speed [m/s]", np.array([1.2, 3.4])) == "0.000"
     assert xlsx.number_format("run distance [m]", np.array([150.0, 190.0])) == "0.0"
+
+
+def test_basis_sheet_names_the_sources_and_assumptions(written):
+    # The sources are the published ones the program uses: the ITTC-1957 line (8th ITTC,
+    # 1957), IAPWS R12-08 viscosity and TEOS-10 / IAPWS R13-08 sea water.
+    _, wb = written
+    rows = list(wb["Basis"].iter_rows(values_only=True))
+    assert rows[0] == ("topic", "text")
+    topics = {r[0] for r in rows[1:]}
+    assert {"caution", "prototype fluid correlation", "model fluid correlation",
+            "reference", "test day"} <= topics
+    text = " ".join(str(r[1]) for r in rows[1:])
+    for source in ("IAPWS R12-08", "TEOS-10", "ITTC-1957", "8th ITTC"):
+        assert source in text
+    assert any(str(t).startswith("check source: ") for t in topics)

@@ -374,3 +374,46 @@ def test_rotation_rate_in_hertz_counts_revolutions():
     m["prototype"].update(kind="propeller", length="4.2 m", speeds=["6 m/s"],
                           rotation_rates=["2 Hz"])
     assert parse_case(m).prototype.rotation_rates == (2.0,)
+
+
+def test_facility_fastest_rotation_in_rpm_counts_revolutions():
+    # 1 rpm = 1/60 revolution per second (module doc): 3000 rpm is n = 50 1/s, not the
+    # 314 rad/s pint alone gives; the limit is compared with n of J = V/(nD), in revolutions.
+    import tomllib
+
+    demo = Path(__file__).resolve().parents[2] / "demo_cases" / "facilities"
+    table = tomllib.loads((demo / "cavitation_tunnel_demo.toml").read_text(encoding="utf-8"))
+    in_hz = parse_facility(table).max_rotation_rate
+    table["fastest_rotation"] = "3000 rpm"
+    assert parse_facility(table).max_rotation_rate == pytest.approx(50.0, rel=1e-12)
+    assert in_hz == pytest.approx(50.0, rel=1e-12)  # the file's "50 Hz"
+
+
+def test_every_key_the_reader_accepts_is_documented_in_the_reference():
+    # The case-file reference (docs/case-file.md) is the user's only list of keys; a key the
+    # reader accepts but the reference omits could only be found by reading the code.
+    import re
+
+    import similitude.case_file as cf
+
+    doc = (Path(__file__).parents[2] / "docs" / "case-file.md").read_text(encoding="utf-8")
+    assert set(cf.CASE_KEYS) >= {"", "prototype", "facility", "runs", "runs.waves"}
+    missing = [f"{table or 'top level'}: {key}" for table, keys in cf.CASE_KEYS.items()
+               for key in keys
+               if not re.search(rf"`{re.escape(key)}`|^\s*#?\s*{re.escape(key)}\s*="
+                                rf"|\[{re.escape(_dot(table, key))}\]", doc, re.MULTILINE)]
+    assert missing == []
+
+
+def _dot(table: str, key: str) -> str:
+    return f"{table}.{key}" if table else key
+
+
+@pytest.mark.parametrize("text", ["120 rev/min", "2 rev/s", "2 rps", "12.566370614359172 rad/s"])
+def test_rotation_rate_in_rev_rps_or_rad_per_second_counts_revolutions(text):
+    # 1 rev/min = 1/60 rev/s (module doc); 4 pi rad/s = 2 revolutions per second, as one
+    # revolution is 2 pi rad (SI Brochure, 9th ed. 2019, Table 4, the radian).
+    m = metric_case()
+    m["prototype"].update(kind="propeller", length="4.2 m", speeds=["6 m/s"],
+                          rotation_rates=[text])
+    assert parse_case(m).prototype.rotation_rates == pytest.approx((2.0,), rel=1e-12)

@@ -2,14 +2,16 @@
 
 Property-based: hypothesis mutates a valid case (keys renamed, deleted or added; values replaced
 by junk of every TOML type, wrong units, absurd numbers, binary text) and checks that reading
-either succeeds or raises InputError with at least one non-empty line. The requirement comes
-from the project's issue on case files (bad input: clear messages, never a traceback).
+either succeeds or raises InputError with at least one non-empty line; demo cases with odd
+magnitudes go on through the planner, which plans or refuses with one clear error. The requirement
+comes from the project's issue on case files (bad input: clear messages, never a traceback).
 """
 
 from __future__ import annotations
 
 import copy
 import datetime as dt
+import re
 import tomllib
 from pathlib import Path
 
@@ -152,3 +154,58 @@ def test_cli_gives_exit_two_and_no_traceback_for_junk_files(tmp_path_factory, co
     assert code == 2
     assert "Traceback" not in err and err.startswith("error: ")
     assert not out.exists()
+
+
+# -- well-formed but odd cases, through the planner ----------------------------------------
+
+DEMO_DOCS = {name: tomllib.loads((DEMO / f"{name}.toml").read_text())
+             for name in ("ferry_resistance", "offshore_seakeeping", "propeller_cavitation",
+                          "wing_wind_tunnel")}
+_NUMBER = re.compile(r"^\s*([-+]?[0-9]+\.?[0-9]*(?:[eE][-+]?[0-9]+)?)\s*(.*)$")
+
+
+def _quantity_paths(node, prefix=()):
+    """Key paths of the quantity strings ("18 kn") of a document."""
+    if isinstance(node, dict):
+        for k, v in node.items():
+            yield from _quantity_paths(v, (*prefix, k))
+    elif isinstance(node, list):
+        for i, v in enumerate(node):
+            yield from _quantity_paths(v, (*prefix, i))
+    elif isinstance(node, str) and _NUMBER.match(node):
+        yield prefix
+
+
+@st.composite
+def rescaled_demo_cases(draw):
+    """A demo case with 1 to 3 quantities scaled by 10^-2 .. 10^2, units kept."""
+    doc = copy.deepcopy(DEMO_DOCS[draw(st.sampled_from(sorted(DEMO_DOCS)))])
+    paths = list(_quantity_paths(doc))
+    for _ in range(draw(st.integers(1, 3))):
+        path = draw(st.sampled_from(paths))
+        parent = _parent(doc, path)
+        m = _NUMBER.match(parent[path[-1]])
+        factor = 10.0 ** draw(st.floats(-2.0, 2.0))
+        parent[path[-1]] = f"{float(m.group(1)) * factor:.6g} {m.group(2)}".strip()
+    return doc
+
+
+@settings(max_examples=150, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(rescaled_demo_cases())
+def test_rescaled_demo_cases_plan_or_give_one_clear_error(doc):
+    # Readable cases with odd magnitudes reach the planner; it must give a plan with its run
+    # matrix, or refuse with InputError / InfeasibleError (exit 2 on the CLI), never crash.
+    from similitude.errors import InfeasibleError
+    from similitude.planner import plan
+
+    try:
+        case = parse_case(doc, base_dir=DEMO)
+    except InputError as exc:
+        assert exc.problems
+        return
+    try:
+        p = plan(case)
+    except (InputError, InfeasibleError) as exc:
+        assert str(exc).strip()
+    else:
+        assert len(p.matrix) > 0 and p.scale > 0

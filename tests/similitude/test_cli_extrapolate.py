@@ -196,3 +196,49 @@ def test_audit_formulas_recalculate_to_the_written_values(measured, tmp_path):
         for row in rows:
             for formula, value in checks:
                 assert float(row[formula]) == pytest.approx(float(row[value]), rel=1e-9)
+
+
+def test_help_lists_the_options_and_exits_zero(capsys):
+    assert main(["extrapolate", "--help"]) == 0
+    out = capsys.readouterr().out
+    for option in ("--case", "--force", "--json", "--form-factor", "--roughness-method",
+                   "--blockage", "--open-water", "--speed-uncertainty"):
+        assert option in out
+
+
+@pytest.mark.parametrize("name", ["ferry_resistance_runs_SYNTHETIC.csv",
+                                  "ferry_resistance_runs_SYNTHETIC_us_units.csv",
+                                  "ferry_open_water_SYNTHETIC.csv"])
+def test_demo_measured_files_say_synthetic_in_their_first_line(name):
+    first = (CASE.parent / "measured" / name).read_text(encoding="utf-8").splitlines()[0]
+    assert first.startswith("#") and "SYNTHETIC" in first and "not a measurement" in first
+
+
+def test_demo_command_of_the_measured_readme_runs_end_to_end(tmp_path, capsys):
+    # the command block of demo_cases/measured/README.md, with the output in tmp_path
+    measured = CASE.parent / "measured"
+    out = tmp_path / "ferry_results.xlsx"
+    code = main(["extrapolate", str(measured / "ferry_resistance_runs_SYNTHETIC.csv"),
+                 "--case", str(CASE), "-o", str(out),
+                 "--speed-uncertainty", "2 mm/s", "--resistance-uncertainty", "0.3 %",
+                 "--open-water", str(measured / "ferry_open_water_SYNTHETIC.csv"),
+                 "--propeller", "diameter=4.2 m; pitch_ratio=1.0; chord_ratio=0.30; blades=4; "
+                 "thickness_ratio=0.04"])
+    assert code == 0
+    text = capsys.readouterr().out
+    assert "open water" in text and "u(P_E)" in text and f"wrote {out}" in text
+    assert {"Uncertainty", "Open water"} <= set(load_workbook(out).sheetnames)
+
+
+def test_us_unit_demo_file_gives_the_same_prediction_as_the_si_file(capsys):
+    # same runs in kn, lbf and degF (exact definitions: BIPM SI Brochure 2019 Table 8,
+    # NIST SP 811 B.8); the files round to 6-7 digits, and Prohaska's fit of k amplifies that
+    # rounding about tenfold, hence 1e-4 (a unit slip would be off by a factor of 2 or more)
+    measured = CASE.parent / "measured"
+    results = []
+    for name in ("ferry_resistance_runs_SYNTHETIC.csv",
+                 "ferry_resistance_runs_SYNTHETIC_us_units.csv"):
+        assert main(["extrapolate", str(measured / name), "--case", str(CASE), "--json"]) == 0
+        results.append(json.loads(capsys.readouterr().out)["results"])
+    pe = [[row["P_E [kW]"] for row in r] for r in results]
+    np.testing.assert_allclose(pe[1], pe[0], rtol=1e-4)

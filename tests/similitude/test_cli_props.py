@@ -144,3 +144,17 @@ def test_any_catalogue_name_from_the_list_is_accepted(capsys):
     assert len(rows) == 2
     assert float(rows[1]["density [kg/m^3]"]) == pytest.approx(
         PropsSI("D", "T", 293.15, "P", 3e5, "SF6"), rel=1e-3)
+
+
+def test_help_lists_the_options_and_exits_zero(capsys):
+    assert main(["props", "--help"]) == 0
+    out = capsys.readouterr().out
+    for option in ("--temperature", "--pressure", "--salinity", "--csv", "--list"):
+        assert option in out
+
+
+def test_top_level_help_names_every_command(capsys):
+    assert main(["--help"]) == 0
+    out = capsys.readouterr().out
+    for command in ("plan", "props", "groups", "extrapolate"):
+        assert command in out

@@ -261,3 +261,12 @@ def test_the_planner_uses_this_matrix():
     assert len(p.matrix) == 3 * 2
     np.testing.assert_allclose(p.matrix["model speed [m/s]"],
                                p.matrix["prototype speed [m/s]"] / math.sqrt(p.scale))
+
+
+def test_current_is_scaled_to_the_model_like_a_speed():
+    # Froude similitude scales every velocity by 1/sqrt(lambda) (published facts, sec. 0):
+    # a 0.5 m/s current at 1:25 is 0.1 m/s in the basin.
+    m = build_matrix(_case(MatrixSpec(current=0.5)), _solution())
+    np.testing.assert_allclose(m["prototype current [m/s]"], 0.5)
+    np.testing.assert_allclose(m["model current [m/s]"], 0.5 / math.sqrt(LAM), rtol=1e-12)
+    assert "model current [m/s]" not in build_matrix(_case(), _solution()).columns

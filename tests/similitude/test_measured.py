@@ -205,3 +205,55 @@ def test_open_water_thrust_uses_fresh_water_at_the_run_temperature():
     runs = open_water_runs_from_frame(frame, diameter=0.25)
     assert runs.thrust_coefficient[0] == pytest.approx(150 / (999.1026 * 144 * 0.25**4),
                                                        rel=1e-4)
+
+
+def test_open_water_rate_in_rpm_counts_revolutions():
+    # 1 rpm = 1/60 revolution per second (BIPM SI Brochure, 9th ed. 2019, Table 8 lists the
+    # minute as 60 s); n of J = V_A/(nD) counts revolutions (ITTC Symbols and Terminology
+    # List, 2017), so 720 rpm is n = 12 1/s, not the 75.4 rad/s pint would give.
+    frame = pd.DataFrame({"advance speed [m/s]": ["1.5"], "rotation rate [rpm]": ["720"],
+                          "thrust coefficient [-]": ["0.3"], "torque coefficient [-]": ["0.04"]})
+    runs = open_water_runs_from_frame(frame, diameter=0.25)
+    assert runs.rotation_rate[0] == pytest.approx(12.0, rel=1e-12)
+    assert runs.advance_ratio[0] == pytest.approx(1.5 / (12.0 * 0.25), rel=1e-12)  # 0.5
+
+
+_GOOD_ROWS = ("run,model speed [m/s],total resistance [N],water temperature [degC]\n"
+              "1,1.0,10.0,15.0\n2,1.2,14.0,15.1\n3,1.4,19.0,15.2\n")
+
+
+def test_junk_cells_give_runs_or_one_input_error_per_problem():
+    # Property-based (hypothesis): any cell replaced by junk text reads, or raises InputError
+    # whose every line names a row or column; never another exception.
+    from hypothesis import HealthCheck, given, settings
+    from hypothesis import strategies as st
+
+    junk = st.one_of(st.text(max_size=12), st.sampled_from(
+        ["", "nan", "inf", "-1", "0", "1e400", "abc", "1,5", "R1", "2", "[m/s]", "speed"]))
+
+    @settings(max_examples=300, deadline=None, suppress_health_check=list(HealthCheck))
+    @given(cells=st.lists(st.tuples(st.integers(0, 3), st.integers(0, 3), junk), min_size=1,
+                          max_size=3))
+    def check(cells):
+        rows = [line.split(",") for line in _GOOD_ROWS.splitlines()]
+        for i, j, value in cells:
+            rows[i][j] = value.replace(",", ";").replace("\n", " ").replace("\r", " ")
+        frame = pd.DataFrame(rows[1:], columns=rows[0])
+        try:
+            runs = resistance_runs_from_frame(frame)
+        except InputError as exc:
+            assert exc.problems and all(("row" in p or "column" in p or "run" in p)
+                                        for p in exc.problems)
+        else:
+            assert np.all(runs.resistance > 0) and np.all(np.isfinite(runs.speed))
+
+    check()
+
+
+@pytest.mark.parametrize("unit, value", [("rev/min", "720"), ("rev/s", "12"), ("Hz", "12")])
+def test_open_water_rate_units_of_the_trade_count_revolutions(unit, value):
+    # 720 rev/min = 12 rev/s = 12 Hz (1 min = 60 s, BIPM SI Brochure 2019, Table 8)
+    frame = pd.DataFrame({"advance speed [m/s]": ["1.5"], f"rotation rate [{unit}]": [value],
+                          "thrust coefficient [-]": ["0.3"], "torque coefficient [-]": ["0.04"]})
+    runs = open_water_runs_from_frame(frame, diameter=0.25)
+    assert runs.rotation_rate[0] == pytest.approx(12.0, rel=1e-12)

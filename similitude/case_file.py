@@ -9,6 +9,7 @@ full reference with a commented example)::
     facility       an inline [facility] table, a [facility] table with file = "path", or a
                    top-level path string to a facility file (relative to the case file)
     [matching]     exact, report, scale, model_length, choose, friction_line, form_factor,
+                   round_scale,
                    [matching.model_fluid]
     [runs]         speeds, speeds_as, repeats, headings, current, wait_between_runs,
                    [[runs.loading]], [[runs.waves]]
@@ -109,7 +110,7 @@ SIZE_KEYS: dict[str, str] = {
 }
 
 ABOUT_KEYS = ("title", "project", "client", "author", "date", "note")
-FLUID_KEYS = ("name", "temperature", "pressure", "salinity", "humidity")
+FLUID_KEYS = ("name", "temperature", "pressure", "salinity", "humidity", "mass_fraction")
 PROTOTYPE_KEYS = ("kind", "name", "length", "speeds", "rotation_rates", "water_depth",
                   "immersion", "air_pressure", "sizes", "fluid")
 FACILITY_KEYS = ("file", "kind", "name", "length", "width", "depth", "height", "speed_limits",
@@ -117,7 +118,7 @@ FACILITY_KEYS = ("file", "kind", "name", "length", "width", "depth", "height", "
                  "open_jet", "wave_periods", "highest_wave", "fastest_rotation",
                  "shortest_model", "longest_model", "shortest_steady_time")
 MATCHING_KEYS = ("exact", "report", "scale", "model_length", "choose", "friction_line",
-                 "form_factor", "model_fluid")
+                 "form_factor", "model_fluid", "round_scale")
 RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_between_runs",
              "loading", "waves")
 LOADING_KEYS = ("name", "draught", "trim", "displacement")
@@ -432,6 +433,7 @@ def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
     pressure = r.field(t, "pressure", path, PRESSURE, _LIMITS["pressure"])
     salinity = r.field(t, "salinity", path, RATIO, (0.0, 0.2), strict_low=False)
     humidity = r.field(t, "humidity", path, RATIO, (0.0, 1.0), strict_low=False)
+    fraction = r.field(t, "mass_fraction", path, RATIO, (0.0, 1.0), strict_low=False)
     if info is not None:
         for key, value in (("temperature", temp), ("salinity", salinity),
                            ("pressure", pressure)):
@@ -444,6 +446,9 @@ def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
         if salinity is not None and info.range_of("salinity") is None:
             r.problem(_join(path, "salinity"), f"given, but {info.name} has no salinity; "
                       "expected it only for sea_water")
+        if fraction is not None and info.range_of("mass_fraction") is None:
+            r.problem(_join(path, "mass_fraction"), f"given, but {info.name} is not a mixture; "
+                      "expected it only for glycerol_water")
         if humidity is not None and info.kind != "gas":
             r.problem(_join(path, "humidity"), f"given, but {info.name} is not a gas; "
                       "expected it only for air")
@@ -451,7 +456,7 @@ def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
         return None
     try:
         return FluidSpec(name=name, temperature=temp, pressure=pressure, salinity=salinity,
-                         relative_humidity=humidity or 0.0)
+                         relative_humidity=humidity or 0.0, mass_fraction=fraction)
     except InputError as exc:
         for line in exc.problems:
             r.problems.append(f"{path}: {line}")
@@ -616,6 +621,8 @@ def _read_matching(r: _Reader, data: Any) -> MatchRequest | None:
     k = r.field(t, "form_factor", path, RATIO, (0.0, 2.0), strict_low=False)
     if k is not None:
         kw["form_factor"] = k
+    if "round_scale" in t:
+        kw["round_scale"] = r.flag(t, "round_scale", path, True)
     if "model_fluid" in t:
         mf = _read_fluid(r, t["model_fluid"], "matching.model_fluid")
         if mf is None:

@@ -417,3 +417,34 @@ def test_rotation_rate_in_rev_rps_or_rad_per_second_counts_revolutions(text):
     m["prototype"].update(kind="propeller", length="4.2 m", speeds=["6 m/s"],
                           rotation_rates=[text])
     assert parse_case(m).prototype.rotation_rates == pytest.approx((2.0,), rel=1e-12)
+
+
+def test_round_scale_false_reaches_the_request():
+    m = metric_case()
+    m.setdefault("matching", {})["round_scale"] = False
+    assert parse_case(m).request.round_scale is False
+
+
+def test_round_scale_must_be_true_or_false():
+    m = metric_case()
+    m.setdefault("matching", {})["round_scale"] = "yes"
+    with pytest.raises(InputError, match=r"matching.round_scale: 'yes' is not valid; expected "
+                       "true or false"):
+        parse_case(m)
+
+
+def test_mass_fraction_of_a_glycerol_model_fluid_is_read_as_a_fraction():
+    m = metric_case()
+    m["facility"]["fluids"] = ["fresh_water", "glycerol_water"]
+    m.setdefault("matching", {})["model_fluid"] = {
+        "name": "glycerol-water", "temperature": "20 degC", "mass_fraction": "60 %"}
+    fluid = parse_case(m).request.model_fluid
+    assert fluid.name == "glycerol_water" and fluid.mass_fraction == pytest.approx(0.6)
+
+
+def test_mass_fraction_for_a_pure_fluid_is_refused():
+    m = metric_case()
+    m["prototype"]["fluid"]["mass_fraction"] = 0.3
+    with pytest.raises(InputError, match=r"prototype.fluid.mass_fraction: given, but "
+                       "sea_water is not a mixture"):
+        parse_case(m)

@@ -8,6 +8,7 @@ from __future__ import annotations
 import math
 
 import pytest
+from scenarios import ship, tank
 
 from similitude import checks, solver
 from similitude.case import (
@@ -25,19 +26,6 @@ from similitude.findings import Check
 G = 9.80665  # standard gravity [m/s^2]
 
 
-def ship(**kw):
-    base = dict(kind="surface_ship", length=150.0, speeds=(6.0, 8.0, 10.0),
-                fluid=FluidSpec("sea_water", 288.15),
-                dimensions={"beam": 24.0, "draught": 8.0, "midship_area": 190.0})
-    base.update(kw)
-    return Prototype(**base)
-
-
-def tank(**kw):
-    base = dict(kind="towing_tank", name="tank A", length=200.0, width=8.0, depth=4.0,
-                speed_range=(0.1, 6.0), acceleration=0.5)
-    base.update(kw)
-    return Facility(**base)
 
 
 def checks_of(case):

@@ -1,6 +1,6 @@
 """Case files: a planning case written in TOML, read into a :class:`similitude.case.Case`.
 
-A case file has five tables (the key names are this project's own; ``docs/case-file.md`` is the
+A case file has five tables (the key names are this project's own; the README's "Case files" section is the
 full reference with a commented example)::
 
     [about]        title, project, client, author, date, note

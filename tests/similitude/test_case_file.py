@@ -349,9 +349,9 @@ def test_demo_folder_exists_for_the_relative_facility_paths():
 
 
 def test_commented_example_of_the_reference_reads(tmp_path):
-    # The first ```toml block of docs/case-file.md, with the demo tank beside it.
+    # The first ```toml block of the README (the case-file reference), with the demo tank beside it.
     root = Path(__file__).parents[2]
-    doc = (root / "docs" / "case-file.md").read_text()
+    doc = (root / "README.md").read_text()
     example = doc.split("```toml\n", 1)[1].split("```", 1)[0]
     (tmp_path / "facilities").mkdir()
     (tmp_path / "facilities" / "towing_tank_demo.toml").write_text(
@@ -390,13 +390,13 @@ def test_facility_fastest_rotation_in_rpm_counts_revolutions():
 
 
 def test_every_key_the_reader_accepts_is_documented_in_the_reference():
-    # The case-file reference (docs/case-file.md) is the user's only list of keys; a key the
+    # The case-file reference (in the README) is the user's only list of keys; a key the
     # reader accepts but the reference omits could only be found by reading the code.
     import re
 
     import similitude.case_file as cf
 
-    doc = (Path(__file__).parents[2] / "docs" / "case-file.md").read_text(encoding="utf-8")
+    doc = (Path(__file__).parents[2] / "README.md").read_text(encoding="utf-8")
     assert set(cf.CASE_KEYS) >= {"", "prototype", "facility", "runs", "runs.waves"}
     missing = [f"{table or 'top level'}: {key}" for table, keys in cf.CASE_KEYS.items()
                for key in keys

@@ -272,7 +272,7 @@ def test_cavitation_tunnel_propeller_by_hand():
     sigma = (101325.0 + rho_p * G * 8.0 - pv_p) / (0.5 * rho_p * 1.8**2 * 6.0**2)
     n_m = math.sqrt((2e5 - pv_m) / (0.5 * rho_m * sigma * 0.4**2))
     assert sol.model_pressure == pytest.approx(2e5, rel=1e-9)
-    assert 1.8 * sol.rotation_ratio == pytest.approx(n_m, rel=1e-9)
+    assert sol.rotation_ratio * 1.8 == pytest.approx(n_m, rel=1e-9)
     j = 8.0 / (1.8 * 6.0)
     assert 8.0 * sol.velocity_ratio == pytest.approx(j * n_m * 0.4, rel=1e-9)
 
@@ -280,7 +280,7 @@ def test_cavitation_tunnel_propeller_by_hand():
 def test_cavitation_tunnel_minimum_pressure_binds_for_a_high_sigma_target():
     # Dynamometer limit 10 1/s caps n_m; the solver must still match sigma_n exactly.
     sol = solver.solve(propeller_case(max_rotation_rate=10.0))
-    assert 1.8 * sol.rotation_ratio <= 10.0 * (1 + 1e-9)
+    assert sol.rotation_ratio * 1.8 <= 10.0 * (1 + 1e-9)
     assert sol.model_pressure <= 2e5
 
 

@@ -111,7 +111,7 @@ def test_prohaska_intercept_error_equals_the_least_squares_standard_error():
     x = a["froude"][used] ** 4 / a["cfm"][used]
     y = a["ctm"][used] / a["cfm"][used]
     ref = stats.linregress(x, y)
-    assert 1 + e.form_factor == pytest.approx(ref.intercept, rel=1e-10)
+    assert e.form_factor + 1 == pytest.approx(ref.intercept, rel=1e-10)
     assert prohaska_intercept_error(e) == pytest.approx(ref.intercept_stderr, rel=1e-8)
 
 

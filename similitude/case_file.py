@@ -1,7 +1,7 @@
 """Case files: a planning case written in TOML, read into a :class:`similitude.case.Case`.
 
-A case file has five tables (the key names are this project's own; the README's "Case files" section is the
-full reference with a commented example)::
+A case file has five tables (the key names are this project's own; the README's "Case files"
+section is the full reference with a commented example)::
 
     [about]        title, project, client, author, date, note
     [prototype]    kind, name, length, speeds, rotation_rates, water_depth, immersion,

@@ -21,6 +21,7 @@ from __future__ import annotations
 import math
 import pathlib
 import re
+import textwrap
 import zipfile
 from dataclasses import dataclass, field
 from xml.sax.saxutils import escape
@@ -63,17 +64,26 @@ _HEADER_FILL = "DDEBF7"
 _INPUT_FILL = "FFF2CC"
 _STATUS_FILL = {"ok": "C6EFCE", "warning": "FFEB9C", "fail": "FFC7CE", "info": "DDEBF7"}
 _MAX_WIDTH = 48
+#: Display format of boolean cells: "yes"/"no" where the application applies number formats
+#: to booleans (LibreOffice), TRUE/FALSE otherwise (Excel); the cell value stays a boolean.
+BOOLEAN_FORMAT = '"yes";"yes";"no"'
+#: Height [pt] of one line of wrapped text in the default 11 pt font.
+LINE_HEIGHT = 15.0
+#: Header row repeated on every printed page, by sheet (the Overview has none).
+PRINT_TITLE_ROWS = {"Similarity": 1, "Facility checks": 1, "Runs": 1, "Scaling": 1,
+                    "Fluids": 1, "Test day": TEST_DAY_HEADER_ROW, "Charts": 1, "Basis": 1,
+                    PROPERTY_TABLE_SHEET: 1}
 
 
 # -- number formats -----------------------------------------------------------------------
 def number_format(header: str, values=None) -> str:
     """Excel number format fitted to a column: by its quantity, then by its magnitude.
 
-    Reynolds numbers and other wide-ranging values get scientific format, counts integers,
-    knots two decimals, angles none, otherwise about four significant digits.
+    Reynolds and Weber numbers and other wide-ranging values get scientific format, counts
+    integers, knots two decimals, angles one, otherwise about four significant digits.
     """
     h = header.lower()
-    if "reynolds" in h or "c_f" in h or "[pa s]" in h or "[m^2/s]" in h:
+    if "reynolds" in h or "weber" in h or "c_f" in h or "[pa s]" in h or "[m^2/s]" in h:
         return "0.0000E+00"
     if h in ("run", "repeat", "speed index") or "runs needed" in h:
         return "0"
@@ -98,6 +108,68 @@ def number_format(header: str, values=None) -> str:
         return "0.0000E+00"
     decimals = int(min(6, max(0, 3 - math.floor(math.log10(m)))))
     return "0" if decimals == 0 else "0." + "0" * decimals
+
+
+def _spread(values) -> float:
+    """Ratio of the largest to the smallest nonzero finite magnitude of a float column."""
+    arr = np.asarray(values)
+    if arr.dtype.kind != "f":
+        return 1.0
+    a = np.abs(arr[np.isfinite(arr) & (arr != 0)])
+    return float(a.max() / a.min()) if a.size else 1.0
+
+
+# -- row heights and printing ----------------------------------------------------------------
+def wrapped_lines(text, width: float) -> int:
+    """Lines a text takes when wrapped in a column ``width`` characters wide (an estimate).
+
+    One character per unit of column width, words kept whole: a slight overestimate for
+    proportional fonts, so the row is never too low.
+    """
+    per_line = max(1, int(width) - 1)
+    return sum(max(1, len(textwrap.wrap(part, per_line, break_long_words=True)))
+               for part in str(text).split("\n"))
+
+
+def _fit_row_height(ws, row: int) -> None:
+    """Set the height of ``row`` to hold its wrapped cells (only ever raised, never lowered)."""
+    from openpyxl.utils import get_column_letter
+
+    lines = 0
+    for c in ws[row]:
+        if c.value is None or not (c.alignment and c.alignment.wrap_text):
+            continue
+        width = ws.column_dimensions[get_column_letter(c.column)].width or 8.43
+        lines = max(lines, wrapped_lines(c.value, width))
+    if lines:
+        height = ws.row_dimensions[row].height or 0
+        ws.row_dimensions[row].height = max(height, lines * LINE_HEIGHT)
+
+
+def _wrap_rows(ws, rows, columns, st) -> None:
+    """Wrap the text of ``columns`` in ``rows`` and fit the row heights to it.
+
+    The other cells of these rows are aligned to the top, level with the first text line.
+    """
+    from openpyxl.styles import Alignment
+
+    top = Alignment(vertical="top")
+    for r in rows:
+        for c in ws[r]:
+            if c.value is not None:
+                c.alignment = st["wrap"] if c.column in columns else top
+        _fit_row_height(ws, r)
+
+
+def _print_setup(ws) -> None:
+    """Landscape, one page wide (as many pages long as needed), header row on every page."""
+    ws.page_setup.orientation = "landscape"
+    ws.sheet_properties.pageSetUpPr.fitToPage = True
+    ws.page_setup.fitToWidth = 1
+    ws.page_setup.fitToHeight = 0
+    title = PRINT_TITLE_ROWS.get(ws.title)
+    if title is not None:
+        ws.print_title_rows = f"{title}:{title}"
 
 
 # -- long tables written as raw sheet XML --------------------------------------------------
@@ -195,6 +267,8 @@ def _styles():
         "title_font": Font(bold=True, size=14),
         "bold": Font(bold=True),
         "wrap": Alignment(wrap_text=True, vertical="top"),
+        "left": Alignment(horizontal="left"),
+        "center": Alignment(horizontal="center"),
         "input_fill": PatternFill("solid", fgColor=_INPUT_FILL),
     }
 
@@ -228,12 +302,19 @@ def _write_frame(ws, df, row: int = 1, col: int = 1, st=None) -> tuple[int, int]
     st = st or _styles()
     _header(ws, row, list(df.columns), col, st)
     for j, name in enumerate(df.columns):
-        fmt = number_format(str(name), df[name].to_numpy())
+        values = df[name].to_numpy()
+        fmt = number_format(str(name), values)
+        # a column of mixed magnitudes (no format of its quantity): a format per value
+        per_cell = number_format(str(name)) == "General" and _spread(values) > 100
         for i, v in enumerate(df[name].tolist()):
             c = ws.cell(row=row + 1 + i, column=col + j, value=_value(v))
-            if fmt != "General" and isinstance(c.value, (int, float)) and not isinstance(
-                    c.value, bool):
-                c.number_format = fmt
+            if isinstance(c.value, bool):
+                c.number_format = BOOLEAN_FORMAT
+                c.alignment = st["center"]
+            elif isinstance(c.value, (int, float)):
+                f = number_format(str(name), np.array([c.value])) if per_cell else fmt
+                if f != "General":
+                    c.number_format = f
     return row + 1, row + len(df)
 
 
@@ -260,8 +341,10 @@ def _kv(ws, row: int, key: str, value, fmt: str | None = None, st=None) -> int:
     st = st or _styles()
     ws.cell(row=row, column=1, value=key).font = st["bold"]
     c = ws.cell(row=row, column=2, value=_value(value))
-    if fmt and isinstance(c.value, (int, float)):
-        c.number_format = fmt
+    if isinstance(c.value, (int, float)):
+        c.alignment = st["left"]  # next to its label, not at the far end of the wide column
+        if fmt:
+            c.number_format = fmt
     return row + 1
 
 
@@ -322,16 +405,17 @@ def _sheet_overview(wb, plan, st):
                         f"{row['model value']:.4g} / {row['prototype value']:.4g}"
                         + ("" if row["matched"] else "  (not matched)"), st=st)
     r += 1
-    ws.cell(row=r, column=1, value="cautions").font = st["bold"]
-    c = ws.cell(row=r, column=2, value=CAUTION)
-    c.alignment = st["wrap"]
-    r += 1
-    for note in getattr(plan, "notes", ()):
-        c = ws.cell(row=r, column=2, value=str(note))
-        c.alignment = st["wrap"]
-        r += 1
     ws.column_dimensions["A"].width = 40
     ws.column_dimensions["B"].width = 90
+    ws.cell(row=r, column=1, value="cautions").font = st["bold"]
+    ws.cell(row=r, column=1).alignment = st["wrap"]
+    first_note = r
+    ws.cell(row=r, column=2, value=CAUTION)
+    r += 1
+    for note in getattr(plan, "notes", ()):  # one row each, as high as its wrapped text
+        ws.cell(row=r, column=2, value=str(note))
+        r += 1
+    _wrap_rows(ws, range(first_note, r), (2,), st)
     ws.freeze_panes = "A2"
 
 
@@ -341,6 +425,7 @@ def _sheet_similarity(wb, plan, st):
     ws = wb.create_sheet(SHEET_NAMES[1])
     g = plan.groups
     first, last = _write_frame(ws, g, 1, 1, st)
+    _group_value_formats(ws, g, 1)
     if len(g):
         from openpyxl.utils import get_column_letter
 
@@ -357,12 +442,31 @@ def _sheet_similarity(wb, plan, st):
     cf = pd.DataFrame(rows, columns=["group", "prototype value", "model value",
                                      "ratio prototype/model [-]", "consequence", "details"])
     _, cl = _write_frame(ws, cf, r, 1, st)
-    for rr in range(r + 1, cl + 1):
-        for cc in (5, 6):
-            ws.cell(row=rr, column=cc).alignment = st["wrap"]
+    for i, c in enumerate(getattr(plan, "conflicts", ())):
+        for col in (2, 3):
+            cell = ws.cell(row=r + 1 + i, column=col)
+            if isinstance(cell.value, float):
+                cell.number_format = number_format(f"{c.group} number",
+                                                   np.array([cell.value]))
     _fit_widths(ws)
-    ws.column_dimensions["E"].width = 70
-    ws.column_dimensions["F"].width = 60
+    ws.column_dimensions["E"].width = 50
+    ws.column_dimensions["F"].width = 45
+    _wrap_rows(ws, range(r + 1, cl + 1), (5, 6), st)
+    for header_row in (1, r):
+        _fit_row_height(ws, header_row)
+
+
+def _group_value_formats(ws, groups, header_row: int) -> None:
+    """Format the value cells of each similarity group by its group and magnitude."""
+    heads = list(groups.columns)
+    cols = [heads.index(h) + 1 for h in ("prototype value", "model value") if h in heads]
+    if "group" not in heads:
+        return
+    for i, name in enumerate(groups["group"].tolist()):
+        for col in cols:
+            cell = ws.cell(row=header_row + 1 + i, column=col)
+            if isinstance(cell.value, float):
+                cell.number_format = number_format(str(name), np.array([cell.value]))
 
 
 def _fmt(v) -> str:
@@ -390,11 +494,12 @@ def _sheet_checks(wb, plan, st):
             cell = ws.cell(row=2 + i, column=col)
             if isinstance(cell.value, float):
                 cell.number_format = number_format("", np.array([cell.value]))
-        ws.cell(row=2 + i, column=9).alignment = st["wrap"]
     ws.auto_filter.ref = f"A1:I{max(last, 1)}"
     ws.freeze_panes = "A2"
     _fit_widths(ws)
     ws.column_dimensions["I"].width = 70
+    _wrap_rows(ws, range(2, last + 1), (1, 8, 9), st)
+    _fit_row_height(ws, 1)
     ws.cell(row=last + 2, column=1, value="margin = (limit - value)/|limit| for a maximum, "
             "(value - limit)/|limit| for a minimum; negative when violated")
 
@@ -409,7 +514,7 @@ def _long_table(wb, ws, df, header_row: int, st, extra_formats=None) -> _LongTab
         values = df[name].to_numpy()
         kind = values.dtype.kind
         if kind == "b":
-            k, fmt = "bool", "General"
+            k, fmt = "bool", BOOLEAN_FORMAT
         elif kind in "iu":
             k, fmt = "int", "0"
         elif kind == "f":
@@ -421,6 +526,8 @@ def _long_table(wb, ws, df, header_row: int, st, extra_formats=None) -> _LongTab
         tmpl = ws.cell(row=header_row + 1, column=j, value=0)
         if fmt != "General":
             tmpl.number_format = fmt
+        if k == "bool":
+            tmpl.alignment = st["center"]
         table.columns.append((get_column_letter(j), k, tmpl.style_id, values))
         width = max(10, min(_MAX_WIDTH, len(str(name)) * 0.55 + 4))
         if k == "str":
@@ -472,6 +579,7 @@ def _sheet_scaling(wb, plan, st):
     ws.auto_filter.ref = f"A1:{get_column_letter(len(sf.columns))}{last}"
     ws.freeze_panes = "A2"
     _fit_widths(ws)
+    _fit_row_height(ws, 1)
 
 
 def _sheet_fluids(wb, plan, st):
@@ -720,6 +828,7 @@ def _temperature_range(fluid: str):
 
 def _sheet_charts(wb, plan, st):
     from openpyxl.chart import Reference, ScatterChart, Series
+    from openpyxl.chart.shapes import GraphicalProperties
 
     from similitude.friction import friction_coefficient
 
@@ -777,10 +886,14 @@ def _sheet_charts(wb, plan, st):
                   Reference(ws, min_col=8, min_row=2, max_row=1 + ng), title="ITTC-1957 line")
     line.marker.symbol = "none"
     fc.series.append(line)
-    for xcol, ycol, name in ((3, 5, "model"), (4, 6, "ship")):
+    for xcol, ycol, name, colour in ((3, 5, "model", "4472C4"), (4, 6, "ship", "C0504D")):
         s = Series(Reference(ws, min_col=ycol, min_row=2, max_row=1 + n),
                    Reference(ws, min_col=xcol, min_row=2, max_row=1 + n), title=name)
         s.marker.symbol = "circle"
+        s.marker.size = 7
+        # points only: the markers need their own fill, or no line hides them as well
+        s.marker.graphicalProperties = GraphicalProperties(solidFill=colour)
+        s.marker.graphicalProperties.line.solidFill = colour
         s.graphicalProperties.line.noFill = True
         fc.series.append(s)
     fc.x_axis.delete = False
@@ -817,13 +930,14 @@ def _sheet_basis(wb, plan, st):
          "(closed form for fresh water; otherwise linear interpolation in the "
          f"'{PROPERTY_TABLE_SHEET}' sheet)."),
     ]
-    for i, (k, v) in enumerate(rows, start=2):
-        ws.cell(row=i, column=1, value=k)
-        ws.cell(row=i, column=2, value=v).alignment = st["wrap"]
-    ws.auto_filter.ref = f"A1:B{len(rows) + 1}"
-    ws.freeze_panes = "A2"
     ws.column_dimensions["A"].width = 40
     ws.column_dimensions["B"].width = 110
+    for i, (k, v) in enumerate(rows, start=2):
+        ws.cell(row=i, column=1, value=k)
+        ws.cell(row=i, column=2, value=v)
+    _wrap_rows(ws, range(2, len(rows) + 2), (1, 2), st)
+    ws.auto_filter.ref = f"A1:B{len(rows) + 1}"
+    ws.freeze_panes = "A2"
 
 
 def build_workbook(plan):
@@ -850,6 +964,8 @@ def build_workbook(plan):
     test_day = _sheet_test_day(wb, plan, st)
     _sheet_charts(wb, plan, st)
     _sheet_basis(wb, plan, st)
+    for ws in wb.worksheets:
+        _print_setup(ws)
     ref = f"'{TEST_DAY_SHEET}'!{_abs(TEMPERATURE_CELL)}"
     dn = DefinedName("TestDayTemperature", attr_text=ref)
     try:

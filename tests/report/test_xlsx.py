@@ -260,3 +260,177 @@ def test_basis_sheet_names_the_sources_and_assumptions(written):
     for source in ("IAPWS R12-08", "TEOS-10", "ITTC-1957", "8th ITTC"):
         assert source in text
     assert any(str(t).startswith("check source: ") for t in topics)
+
+
+# -- presentation: number formats, booleans, wrapped text, printing -----------------------------
+_INTEGER_FORMATS = ("0", "General", "#,##0")
+
+
+def _rows_of(ws, column: int, value):
+    return [r for r in range(1, ws.max_row + 1) if ws.cell(row=r, column=column).value == value]
+
+
+def test_froude_number_cells_of_the_similarity_sheet_show_decimals(written):
+    _, wb = written
+    ws = wb["Similarity"]
+    heads = [c.value for c in ws[1]]
+    rows = _rows_of(ws, 1, "Froude number")
+    assert rows
+    for r in rows:
+        for name in ("prototype value", "model value"):
+            fmt = ws.cell(row=r, column=heads.index(name) + 1).number_format
+            assert fmt not in _INTEGER_FORMATS and re.fullmatch(r"0\.0{3,}", fmt), fmt
+
+
+def test_reynolds_number_cells_of_the_similarity_sheet_are_scientific(written):
+    _, wb = written
+    ws = wb["Similarity"]
+    heads = [c.value for c in ws[1]]
+    rows = _rows_of(ws, 1, "Reynolds number")
+    assert rows
+    for r in rows:
+        for name in ("prototype value", "model value"):
+            assert "E+" in ws.cell(row=r, column=heads.index(name) + 1).number_format
+
+
+def test_weber_numbers_get_a_scientific_format():
+    assert "E+" in xlsx.number_format("model Weber number [-]")
+
+
+def test_matched_cells_are_booleans_shown_as_yes_or_no(written, plan):
+    _, wb = written
+    ws = wb["Similarity"]
+    col = [c.value for c in ws[1]].index("matched") + 1
+    cells = [ws.cell(row=2 + i, column=col) for i in range(len(plan.groups))]
+    assert [c.value for c in cells] == [bool(v) for v in plan.groups["matched"]]
+    assert all(c.number_format == xlsx.BOOLEAN_FORMAT for c in cells)
+    assert xlsx.BOOLEAN_FORMAT == '"yes";"yes";"no"'
+
+
+def test_matched_cells_are_centred_apart_from_the_text_beside_them(written):
+    _, wb = written
+    ws = wb["Similarity"]
+    col = [c.value for c in ws[1]].index("matched") + 1
+    assert ws.cell(row=2, column=col).alignment.horizontal == "center"
+
+
+def test_run_feasible_cells_of_the_runs_sheet_are_booleans_shown_as_yes_or_no(written):
+    _, wb = written
+    ws = wb["Runs"]
+    col = [c.value for c in ws[1]].index("run feasible") + 1
+    cell = ws.cell(row=2, column=col)
+    assert isinstance(cell.value, bool)
+    assert cell.number_format == xlsx.BOOLEAN_FORMAT
+
+
+def test_a_short_text_takes_one_line():
+    assert xlsx.wrapped_lines("short", 40) == 1
+
+
+def test_a_long_text_takes_at_least_its_length_over_the_width_in_lines():
+    text = "word " * 60  # 300 characters
+    assert xlsx.wrapped_lines(text, 50) >= 300 // 50
+
+
+def test_each_line_break_starts_a_new_line():
+    assert xlsx.wrapped_lines("a\nb\nc", 40) == 3
+
+
+def _assert_fits(ws, row: int, column: int):
+    cell = ws.cell(row=row, column=column)
+    assert cell.alignment.wrap_text
+    width = ws.column_dimensions[openpyxl.utils.get_column_letter(column)].width
+    lines = xlsx.wrapped_lines(cell.value, width)
+    assert ws.row_dimensions[row].height is not None
+    assert ws.row_dimensions[row].height >= lines * xlsx.LINE_HEIGHT
+
+
+def test_overview_gives_the_caution_and_each_note_its_own_wrapped_row_of_fitting_height(
+        written, plan):
+    _, wb = written
+    ws = wb["Overview"]
+    texts = [xlsx.CAUTION, *map(str, plan.notes)]
+    assert len(texts) > 1
+    rows = [_rows_of(ws, 2, t) for t in texts]
+    assert all(len(r) == 1 for r in rows)
+    assert len({r[0] for r in rows}) == len(texts)
+    for (r,) in rows:
+        _assert_fits(ws, r, 2)
+
+
+def test_the_long_caution_on_the_overview_is_more_than_one_line_high(written):
+    _, wb = written
+    ws = wb["Overview"]
+    (r,) = _rows_of(ws, 2, xlsx.CAUTION)
+    assert ws.row_dimensions[r].height >= 2 * xlsx.LINE_HEIGHT
+
+
+def test_conflict_consequences_and_details_wrap_in_rows_of_fitting_height(written, plan):
+    _, wb = written
+    ws = wb["Similarity"]
+    assert plan.conflicts
+    for c in plan.conflicts:
+        (r,) = _rows_of(ws, 1, c.group)
+        for column in (5, 6):
+            if ws.cell(row=r, column=column).value is not None:
+                _assert_fits(ws, r, column)
+
+
+def test_conflict_rows_align_their_numbers_with_the_first_line_of_text(written, plan):
+    _, wb = written
+    ws = wb["Similarity"]
+    (r,) = _rows_of(ws, 1, plan.conflicts[0].group)
+    assert ws.cell(row=r, column=1).alignment.vertical == "top"
+    assert ws.cell(row=r, column=2).alignment.vertical == "top"
+
+
+def test_facility_check_sources_wrap_in_rows_of_fitting_height(written, plan):
+    _, wb = written
+    ws = wb["Facility checks"]
+    for i in range(len(plan.checks)):
+        _assert_fits(ws, 2 + i, 8)
+
+
+def test_basis_texts_wrap_in_rows_of_fitting_height(written):
+    _, wb = written
+    ws = wb["Basis"]
+    for r in range(2, ws.max_row + 1):
+        _assert_fits(ws, r, 2)
+
+
+def test_every_sheet_prints_landscape_one_page_wide_and_as_many_pages_long_as_needed(written):
+    _, wb = written
+    for ws in wb.worksheets:
+        assert ws.page_setup.orientation == "landscape", ws.title
+        assert ws.sheet_properties.pageSetUpPr.fitToPage, ws.title
+        assert ws.page_setup.fitToWidth == 1, ws.title
+        assert ws.page_setup.fitToHeight == 0, ws.title
+
+
+@pytest.mark.parametrize("sheet, row", [("Runs", 1), ("Similarity", 1), ("Facility checks", 1),
+                                        ("Scaling", 1), ("Basis", 1),
+                                        (xlsx.TEST_DAY_SHEET, xlsx.TEST_DAY_HEADER_ROW)])
+def test_tables_repeat_their_header_row_on_every_printed_page(written, sheet, row):
+    _, wb = written
+    assert wb[sheet].print_title_rows == f"${row}:${row}"
+
+
+def test_points_only_chart_series_have_filled_markers(written):
+    # a series drawn without a line shows nothing unless its markers carry their own fill
+    path, _ = written
+    with zipfile.ZipFile(path) as z:
+        xml = "".join(z.read(n).decode() for n in z.namelist()
+                      if n.startswith("xl/charts/chart"))
+    series = re.findall(r"<ser>.*?</ser>", xml, re.S)
+    points_only = [s for s in series if re.match(r"(?s).*?</tx><spPr><a:ln><a:noFill", s)]
+    assert points_only
+    for s in points_only:
+        marker = re.search(r"<marker>.*?</marker>", s, re.S)
+        assert marker and "<a:solidFill>" in marker.group(0)
+
+
+def test_overview_numbers_stand_next_to_their_labels(written):
+    _, wb = written
+    ws = wb["Overview"]
+    (r,) = _rows_of(ws, 1, "runs [-]")
+    assert ws.cell(row=r, column=2).alignment.horizontal == "left"

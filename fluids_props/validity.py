@@ -104,5 +104,6 @@ def check(values, rng: Range, where: str, extrapolate: bool = False) -> None:
         first = float(arr[bad].flat[0]) if arr.ndim else float(arr)
         raise OutOfRangeError(
             f"{rng.quantity} {rng.value_text(first)} is outside the validity range of {where}: "
-            f"{rng.text()}; pass extrapolate=True to evaluate anyway"
+            f"{rng.text()}; pass extrapolate=True (--extrapolate on the command line) to "
+            "evaluate anyway"
         )

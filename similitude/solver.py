@@ -21,8 +21,8 @@ better than 1e-9 relative. Among the exact solutions the facility limits of
 :mod:`similitude.checks` select the admissible ones, and the objective picks one: the largest
 model (default; least Reynolds mismatch in free-surface tests), the smallest, or the least
 log-mismatch of the groups only reported. Fine line searches along each free variable repair
-the grid's resolution, the admissible boundary in scale is found by a bracketing root of the
-worst limit violation, and interior optima of the mismatch by bounded Brent minimisation.
+the grid's resolution; the admissible boundary in scale and interior optima of the mismatch are
+then found by batched bracket narrowing (one array evaluation of 32 points a round).
 
 Practitioners build models to round scales, so for the largest- and smallest-model
 objectives the limiting scale is then replaced by the nearest convenient one that still
@@ -91,6 +91,9 @@ P_ATM = 101325.0
 _AXES = ("T", "p", "lam", "V")
 _SOLVE_PREFERENCE = ("p", "T", "lam", "V")
 _AXIS_WORDS = {"T": "temperature", "p": "pressure", "lam": "scale", "V": "model speed"}
+#: The property fields of a FluidState (besides temperature and pressure).
+_PROPERTY_FIELDS = ("density_si", "dynamic_viscosity_si", "vapour_pressure_si",
+                    "surface_tension_si", "speed_of_sound_si")
 
 
 # --------------------------------------------------------------------------------------------
@@ -169,8 +172,7 @@ def model_state(info, temperature, pressure, spec: FluidSpec | None = None,
     T, P = T.ravel(), P.ravel()
     keys, inverse = np.unique(np.stack([T, P]), axis=1, return_inverse=True)
     inverse = np.ravel(inverse)
-    fields = ("density_si", "dynamic_viscosity_si", "vapour_pressure_si", "surface_tension_si",
-              "speed_of_sound_si")
+    fields = _PROPERTY_FIELDS
     vals = {f: np.full(keys.shape[1], np.nan) for f in fields}
     present = set()
     template = None
@@ -544,40 +546,17 @@ class Candidates:
     def size(self) -> int:
         return int(np.size(self.scale))
 
-    @property
-    def model_length(self) -> np.ndarray:
-        return self._length / self.scale
-
-    @property
-    def _length(self):
-        return self.extra["prototype_length"]
-
-    def take(self, idx) -> Candidates:
-        """The candidates at flat indices ``idx``."""
-        def t(a):
-            return None if a is None else np.asarray(a)[idx]
-        st = self.state
-        state = FluidState(
-            fluid=st.fluid, temperature_si=t(st.temperature_si), pressure_si=t(st.pressure_si),
-            density_si=t(st.density_si), dynamic_viscosity_si=t(st.dynamic_viscosity_si),
-            vapour_pressure_si=t(st.vapour_pressure_si),
-            surface_tension_si=t(st.surface_tension_si),
-            speed_of_sound_si=t(st.speed_of_sound_si), extra=st.extra, sources=st.sources,
-        )
-        return Candidates(self.fluid, t(self.temperature), t(self.pressure), t(self.scale),
-                          t(self.velocity_ratio), state, t(self.reference_pressure),
-                          self.extra)
-
 
 def _broadcast_state(st: FluidState, shape) -> FluidState:
     def b(a):
         return None if a is None else np.broadcast_to(np.asarray(a, dtype=float), shape).ravel()
-    return FluidState(
-        fluid=st.fluid, temperature_si=b(st.temperature_si), pressure_si=b(st.pressure_si),
-        density_si=b(st.density_si), dynamic_viscosity_si=b(st.dynamic_viscosity_si),
-        vapour_pressure_si=b(st.vapour_pressure_si), surface_tension_si=b(st.surface_tension_si),
-        speed_of_sound_si=b(st.speed_of_sound_si), extra=st.extra, sources=st.sources,
-    )
+    return _map_state(st, b, temperature_si=b(st.temperature_si))
+
+
+def _map_state(st: FluidState, f, temperature_si) -> FluidState:
+    """``st`` with ``f`` applied to its pressure and property arrays (None stays None)."""
+    return replace(st, temperature_si=temperature_si, pressure_si=f(st.pressure_si),
+                   **{k: f(getattr(st, k)) for k in _PROPERTY_FIELDS})
 
 
 def model_side(prob: Problem, c: Candidates, speed_index, vratio=None) -> SideState:
@@ -693,8 +672,9 @@ class GridResult:
     best: tuple | None
 
 
-def _grid_sizes(opt: FluidOption, n: int, prob: Problem) -> dict:
-    free = [k for k in _AXES if opt.axes[k].free and (k != "V" or prob.speed_group is None)]
+def _grid_sizes(opt: FluidOption, n: int, prob: Problem, skip: str | None = None) -> dict:
+    free = [k for k in _AXES if k != skip and opt.axes[k].free
+            and (k != "V" or prob.speed_group is None)]
     sizes = {k: 1 for k in _AXES}
     if not free:
         return sizes
@@ -730,12 +710,7 @@ def _grid_state(opt: FluidOption, sizes: list, T, p) -> FluidState:
             return None
         return np.repeat(np.broadcast_to(np.asarray(a, dtype=float), Tp.shape), rep)
 
-    return FluidState(
-        fluid=st.fluid, temperature_si=T, pressure_si=r(st.pressure_si),
-        density_si=r(st.density_si), dynamic_viscosity_si=r(st.dynamic_viscosity_si),
-        vapour_pressure_si=r(st.vapour_pressure_si), surface_tension_si=r(st.surface_tension_si),
-        speed_of_sound_si=r(st.speed_of_sound_si), extra=st.extra, sources=st.sources,
-    )
+    return _map_state(st, r, temperature_si=T)
 
 
 def _objective(prob: Problem, c: Candidates) -> np.ndarray:
@@ -804,13 +779,16 @@ def _values_with(base: dict, axis: str, values: np.ndarray) -> dict:
     return out
 
 
-def _eval_point_dict(prob, opt, d, extrapolate=False):
-    return evaluate(prob, opt, d["T"], d["p"], d["lam"],
-                    None if prob.speed_group else d["V"], extrapolate=extrapolate)
+def _eval_point_dict(prob, opt, d):
+    return evaluate(prob, opt, d["T"], d["p"], d["lam"], None if prob.speed_group else d["V"])
 
 
-def _bisect(prob, opt, base: dict, axis: str, lo, hi, r_lo, iters: int = 100,
-            extrapolate: bool = False, r_hi=None):
+def _eval_at(prob, opt, point: dict) -> Candidates:
+    """Candidates of the single point ``point`` (a dict of floats T, p, lam, V)."""
+    return _eval_point_dict(prob, opt, {k: np.array([v]) for k, v in point.items()})
+
+
+def _bisect(prob, opt, base: dict, axis: str, lo, hi, r_lo, iters: int = 100):
     """Vectorised bracketed root of the single residual along ``axis`` between lo and hi.
 
     Regula falsi with the Illinois modification (in ln of the variable for log axes): the
@@ -826,10 +804,10 @@ def _bisect(prob, opt, base: dict, axis: str, lo, hi, r_lo, iters: int = 100,
 
     def resid(idx, x):
         sub = {k: v[idx] for k, v in base.items()}
-        c = _eval_point_dict(prob, opt, _values_with(sub, axis, inv(x)), extrapolate)
+        c = _eval_point_dict(prob, opt, _values_with(sub, axis, inv(x)))
         return residuals(prob, c)[0]
 
-    fb = resid(np.arange(a.size), b) if r_hi is None else np.array(r_hi, float)
+    fb = resid(np.arange(a.size), b)
     last = np.zeros(a.shape, dtype=int)  # +1: b was kept last time, -1: a was kept
     x = 0.5 * (a + b)
     active = np.ones(a.shape, dtype=bool)
@@ -859,34 +837,33 @@ def _bisect(prob, opt, base: dict, axis: str, lo, hi, r_lo, iters: int = 100,
     return inv(x)
 
 
-def _roots_along(prob, opt, axis: str, n_axis: int, base_grid: dict, extrapolate=False,
-                 bounds=None):
+def _roots_along(prob, opt, axis: str, n_axis: int, base_grid: dict):
     """Solve the residual along ``axis`` for every grid point of the other axes.
 
-    Returns a dict of flat arrays (T, p, lam, V) at the roots (possibly empty)."""
+    Returns (points, r): a dict of flat arrays (T, p, lam, V) at the roots, or None when no
+    line changes sign, and the residuals r (m, n_axis) on the grid."""
     ax = opt.axes[axis]
-    lo, hi = bounds if bounds is not None else (ax.low, ax.high)
-    line = np.geomspace(lo, hi, n_axis) if ax.log else np.linspace(lo, hi, n_axis)
+    line = ax.grid(n_axis)
     # base_grid: flat arrays of the other axes (m,); build (m, n_axis)
     m = np.size(next(iter(base_grid.values())))
     full = {k: np.repeat(np.asarray(v, float)[:, None], n_axis, axis=1)
             for k, v in base_grid.items()}
     full[axis] = np.broadcast_to(line, (m, n_axis)).copy()
     flat = {k: v.ravel() for k, v in full.items()}
-    c = _eval_point_dict(prob, opt, flat, extrapolate)
+    c = _eval_point_dict(prob, opt, flat)
     r = residuals(prob, c)[0].reshape(m, n_axis)
     with np.errstate(invalid="ignore"):
         sgn = np.sign(r)
         change = (sgn[:, :-1] * sgn[:, 1:] <= 0) & np.isfinite(r[:, :-1]) & np.isfinite(r[:, 1:])
     rows, cols = np.nonzero(change)
     if rows.size == 0:
-        return None, r, line
+        return None, r
     base = {k: np.asarray(v, float)[rows] for k, v in base_grid.items()}
     lo_v, hi_v = line[cols], line[cols + 1]
     root = _bisect(prob, opt, _values_with(base, axis, lo_v), axis, lo_v, hi_v,
-                   r[rows, cols], extrapolate=extrapolate)
+                   r[rows, cols])
     base[axis] = root
-    return base, r, line
+    return base, r
 
 
 # --------------------------------------------------------------------------------------------
@@ -922,31 +899,16 @@ def _pick_best(prob, opt, pts: dict, solve_axis, state=None):
                         float(worst[j]), name, solve_axis)
 
 
-def _other_grid(prob, opt, skip: str | None, n: int):
-    axes = {}
-    free = [k for k in _AXES if k != skip and opt.axes[k].free
-            and (k != "V" or prob.speed_group is None)]
-    per = max(2, int(round(n ** (1.0 / max(1, len(free)))))) if free else 1
-    for k in _AXES:
-        if k == "V" and prob.speed_group is not None:
-            axes[k] = np.array([np.nan])
-        elif k == skip:
-            axes[k] = np.array([np.nan])
-        else:
-            size = per if k in free else 1
-            if k == "lam" and k in free:
-                size = max(per, int(n / max(1, per ** (len(free) - 1))))
-            axes[k] = opt.axes[k].grid(size)
-    mesh = np.meshgrid(*[axes[k] for k in _AXES], indexing="ij")
-    return {k: m.ravel() for k, m in zip(_AXES, mesh, strict=True)}
+def _other_grid(prob, opt, skip: str, n: int) -> dict:
+    """Flat grid of the axes other than ``skip`` (the solve axis), about ``n`` points."""
+    arrays, _ = _grid_arrays(opt, _grid_sizes(opt, n, prob, skip), prob)
+    return {k: a for k, a in zip(_AXES, arrays, strict=True) if k != skip}
 
 
 def _solve_point(prob, opt, point: dict, axis: str, n_axis: int = 64):
     """Re-solve the residual along ``axis`` at one point; the root nearest the old value."""
     base = {k: np.array([v]) for k, v in point.items() if k != axis}
-    base[axis] = np.array([np.nan])
-    pts, _, _ = _roots_along(prob, opt, axis, n_axis, {k: v for k, v in base.items()
-                                                       if k != axis})
+    pts, _ = _roots_along(prob, opt, axis, n_axis, base)
     if pts is None:
         return None
     vals = pts[axis]
@@ -956,11 +918,11 @@ def _solve_point(prob, opt, point: dict, axis: str, n_axis: int = 64):
 
 
 def _refine_scale(prob, pick: _Pick, n_line: int):
-    """Bisect the admissible boundary in scale from a feasible pick (largest/smallest model).
+    """Narrow the admissible boundary in scale from a feasible pick (largest/smallest model).
 
     The neighbour one line step further (towards a larger model for ``largest_model``) is
-    tried; while it is admissible the step is taken, else the boundary between the two is
-    bisected to 1e-13 relative, re-solving the solve axis at each step."""
+    tried; if it is admissible it is taken, else the log-scale bracket between the two is
+    narrowed to 1e-14, re-solving the solve axis at each point."""
     opt = pick.option
     obj = prob.case.request.objective
     if obj == "least_mismatch" or pick.solve_axis == "lam" or not opt.axes["lam"].free:
@@ -969,25 +931,12 @@ def _refine_scale(prob, pick: _Pick, n_line: int):
     step = (ax.high / ax.low) ** (1.0 / max(1, n_line - 1))
     good = dict(pick.point)
     direction = 1.0 / step if obj == "largest_model" else step
-
-    def feasible_at(lam):
-        pt = dict(good)
-        pt["lam"] = lam
-        if pick.solve_axis is not None:
-            pt = _solve_point(prob, opt, pt, pick.solve_axis)
-            if pt is None:
-                return False, None
-        c = _eval_point_dict(prob, opt, {k: np.array([v]) for k, v in pt.items()})
-        _, vmat, _ = violations(prob, c)
-        ok = (vmat.size == 0 or vmat.max() <= 0) and np.isfinite(c.velocity_ratio[0])
-        return bool(ok), pt
-
     trial = min(max(good["lam"] * direction, ax.low), ax.high)
     if trial == good["lam"]:
         return good
-    ok, pt = feasible_at(trial)
-    if ok:
-        return pt  # the line search left a better point; accept it without bisection
+    worst, _, pts = _evaluate_line(prob, opt, good, "lam", np.array([trial]), pick.solve_axis)
+    if worst[0] <= 0:
+        return pts[0]  # the line search left a better point; accept it without narrowing
     # The admissible boundary lies between ``good`` (admissible) and ``trial`` (not). Narrow the
     # log-scale bracket with batched evaluations, one array call of 32 points a round, so the
     # fluid correlations run vectorised (and no root finder is imported on the CLI path).
@@ -1008,7 +957,7 @@ def _refine_scale(prob, pick: _Pick, n_line: int):
 
 def _describe_infeasible(prob, pick: _Pick) -> str:
     opt = pick.option
-    c = _eval_point_dict(prob, opt, {k: np.array([v]) for k, v in pick.point.items()})
+    c = _eval_at(prob, opt, pick.point)
     _, vmat, lims = violations(prob, c)
     order = np.argsort(-vmat[:, 0])
     lam = float(c.scale[0])
@@ -1230,8 +1179,7 @@ def _solve_problem(prob: Problem, n_candidates: int) -> Solution:
             any_free = True
             n_axis = 32
             base = _other_grid(prob, opt, axis, max(8, n_each // n_axis))
-            base = {k: v for k, v in base.items() if k != axis}
-            pts, r, _ = _roots_along(prob, opt, axis, n_axis, base)
+            pts, r = _roots_along(prob, opt, axis, n_axis, base)
             searched += np.size(r)
             if pts is None:
                 no_root.append((opt, r, f" (solving by {_AXIS_WORDS[axis]})"))
@@ -1253,7 +1201,7 @@ def _solve_problem(prob: Problem, n_candidates: int) -> Solution:
     refined = []
     for pick in feasible:
         point = _refine_scale(prob, pick, _LINE_POINTS)
-        c = _eval_point_dict(prob, pick.option, {k: np.array([v]) for k, v in point.items()})
+        c = _eval_at(prob, pick.option, point)
         refined.append((float(_objective(prob, c)[0]), pick, point))
     _, pick, point = min(refined, key=lambda t: t[0])
     return _make_solution(prob, pick.option, point, pick.solve_axis, searched)
@@ -1284,7 +1232,7 @@ def _line_polish(prob, pick: _Pick, ok: bool, sweeps: int = 2):
             if pick.solve_axis is None:
                 pts = base
             else:
-                pts, _, _ = _roots_along(prob, opt, pick.solve_axis, 32, base)
+                pts, _ = _roots_along(prob, opt, pick.solve_axis, 32, base)
                 if pts is None:
                     continue
             ok2, cand = _pick_best(prob, opt, pts, pick.solve_axis)
@@ -1347,7 +1295,7 @@ def _evaluate_line(prob, opt, base: dict, axis: str, xs: np.ndarray, solve_axis)
         pts.append(pt)
         if pt is None:
             continue
-        c = _eval_point_dict(prob, opt, {k: np.array([v]) for k, v in pt.items()})
+        c = _eval_at(prob, opt, pt)
         _, vmat, _ = violations(prob, c)
         if np.isfinite(c.velocity_ratio[0]):
             worst[n] = float(vmat.max()) if vmat.size else -1.0
@@ -1357,7 +1305,7 @@ def _evaluate_line(prob, opt, base: dict, axis: str, xs: np.ndarray, solve_axis)
 
 def _binding_text(prob, opt, point) -> str:
     """The active facility limits at the solution (within 1e-7 relative), in words."""
-    c = _eval_point_dict(prob, opt, {k: np.array([v]) for k, v in point.items()})
+    c = _eval_at(prob, opt, point)
     _, vmat, lims = violations(prob, c)
     fixed = ""
     if not opt.axes["lam"].free:
@@ -1375,7 +1323,7 @@ def _binding_text(prob, opt, point) -> str:
 
 def _make_solution(prob, opt, point, solve_axis, searched) -> Solution:
     case = prob.case
-    c = _eval_point_dict(prob, opt, {k: np.array([v]) for k, v in point.items()})
+    c = _eval_at(prob, opt, point)
     lam = float(c.scale[0])
     vr = float(c.velocity_ratio[0])
     T, p = float(c.temperature[0]), float(c.pressure[0])

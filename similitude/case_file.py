@@ -27,7 +27,6 @@ from __future__ import annotations
 import datetime as _dt
 import difflib
 import math
-import re
 import tomllib
 from collections.abc import Mapping
 from pathlib import Path
@@ -47,7 +46,13 @@ from similitude.case import (
 )
 from similitude.errors import BAD_INPUT_ERRORS, InputError
 from similitude.facilities import FACILITY_KINDS, Facility
-from similitude.units import UnitInputError, parse_quantity, parse_scale, to_si
+from similitude.units import (
+    UnitInputError,
+    parse_quantity,
+    parse_scale,
+    to_rotation_rate,
+    to_si,
+)
 
 __all__ = ["load_case", "load_facility", "parse_case", "parse_facility", "CASE_KEYS"]
 
@@ -286,11 +291,8 @@ class _Reader:
                 plain = str(q.units) in ("dimensionless", "")
                 si = float(q.magnitude) if plain else float(q.to(bare_unit).magnitude)
             else:
-                if dim == RATE and isinstance(value, str):
-                    value = _REV.sub("revolution", value)  # pint has no "rev"
-                si = to_si(value, dim, path)
-                if dim == RATE:
-                    si = _revolutions_per_second(value, si)
+                # n of J = V/(nD) counts revolutions (pint counts rpm in radians).
+                si = to_rotation_rate(value, path) if dim == RATE else to_si(value, dim, path)
         except BAD_INPUT_ERRORS as exc:
             text = str(exc)
             prefix = f"{path}: "
@@ -373,24 +375,6 @@ class _Reader:
             self.problem(p, f"{_show(value)} is not valid; expected lowest <= highest")
             return None
         return (lo, hi)
-
-
-#: "rev" as in "rev/s" or "rev/min": the trade's abbreviation, unknown to pint.
-_REV = re.compile(r"\brevs?\b")
-
-
-def _revolutions_per_second(value: Any, si: float) -> float:
-    """Rotation rate n [1/s] counted in revolutions.
-
-    pint counts rpm, rps and rev/s in radians (120 rpm -> 12.57 rad/s); the propeller
-    rotation rate n of the advance ratio J = V/(nD) counts revolutions, so an angle unit is
-    divided by 2 pi, while Hz and 1/s are taken as revolutions per second already.
-    """
-    if not isinstance(value, str):
-        return si
-    root = parse_quantity(value).to_root_units()
-    power = dict(root.unit_items()).get("radian", 0)
-    return float(root.magnitude) / (2 * math.pi) ** power if power else si
 
 
 def _si_text(si: float, dim: str, unit: str | None = None) -> str:

@@ -22,7 +22,13 @@ import numpy as np
 import pint
 
 from similitude.errors import InputError
-from similitude.units import parse_quantity, to_si, ureg
+from similitude.units import (
+    parse_quantity,
+    radians_per_turn,
+    spell_revolutions,
+    to_si,
+    ureg,
+)
 
 _HEADER = re.compile(r"^\s*(?P<name>.*?)\s*\[(?P<unit>[^\]]*)\]\s*$")
 
@@ -216,7 +222,7 @@ def _unit_factor(unit: str, spec: ColumnSpec, header: str):
     if text in ("", "-", "1"):
         text = "dimensionless"
     if spec.dimension == "1 / [time]":
-        text = re.sub(r"\brevs?\b", "revolution", text)  # "rev/s", "rev/min": unknown to pint
+        text = spell_revolutions(text)
     try:
         probe = ureg.Quantity(1.0, text)
     except (pint.errors.PintError, AttributeError, TypeError, ValueError, SyntaxError,
@@ -236,19 +242,13 @@ def _unit_factor(unit: str, spec: ColumnSpec, header: str):
 
     # pint counts rpm and rps in radians (120 rpm -> 12.57 rad/s); a propeller's rotation rate
     # n of J = V/(nD) counts revolutions, so the angle of such a unit is divided out.
-    per_turn = (_radians_per_turn(text) if spec.dimension == "1 / [time]" else 1.0)
+    per_turn = radians_per_turn(text) if spec.dimension == "1 / [time]" else 1.0
 
     def convert(values: np.ndarray) -> np.ndarray:
         si = ureg.Quantity(values, text).to(spec.si_unit or "dimensionless").magnitude
         return np.asarray(si, dtype=float) / per_turn
 
     return convert
-
-
-def _radians_per_turn(unit: str) -> float:
-    """2 pi raised to the power of radian in ``unit`` (1 for Hz and 1/s)."""
-    power = dict(ureg.Quantity(1.0, unit).to_root_units().unit_items()).get("radian", 0)
-    return (2 * math.pi) ** power if power else 1.0
 
 
 def _run_id(value: Any) -> str:

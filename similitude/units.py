@@ -6,6 +6,7 @@ uses, so Quantities pass freely between the two packages and user code.
 
 from __future__ import annotations
 
+import math
 import re
 from typing import Any
 
@@ -22,6 +23,9 @@ from fluids_props.units import (
 
 __all__ = [
     "Q_",
+    "radians_per_turn",
+    "spell_revolutions",
+    "to_rotation_rate",
     "SI_UNITS",
     "UnitInputError",
     "example_unit",
@@ -31,6 +35,9 @@ __all__ = [
     "to_si",
     "ureg",
 ]
+
+#: "rev" as in "rev/s" or "rev/min": the trade's abbreviation, unknown to pint.
+_REV = re.compile(r"\brevs?\b")
 
 _RATIO = re.compile(r"^\s*(?P<a>\d+(?:\.\d*)?)\s*:\s*(?P<b>\d+(?:\.\d*)?)\s*$")
 
@@ -73,3 +80,37 @@ def parse_scale(value: Any, name: str = "scale") -> float:
     if not lam > 0:
         raise UnitInputError(f"{name}: {value!r} is not a valid scale; expected a number > 0")
     return lam
+
+
+def spell_revolutions(unit_text: str) -> str:
+    """Spell the trade's "rev" (``"rev/min"``, ``"revs/s"``) as pint's ``revolution``."""
+    return _REV.sub("revolution", unit_text)
+
+
+def radians_per_turn(unit_text: str) -> float:
+    """2 pi raised to the power of radian in a rate unit: 2 pi for rpm, rps and rad/s, 1 for
+    Hz and 1/s.
+
+    pint counts rpm and rps in radians (120 rpm -> 12.57 rad/s); a propeller's rotation rate
+    n of J = V/(nD) counts revolutions, so dividing by this factor gives revolutions.
+    """
+    root = Q_(1.0, spell_revolutions(unit_text)).to_root_units()
+    power = dict(root.unit_items()).get("radian", 0)
+    return (2 * math.pi) ** power if power else 1.0
+
+
+def to_rotation_rate(value: Any, name: str = "rotation rate"):
+    """A rotation rate in revolutions per second [1/s].
+
+    Parameters
+    ----------
+    value : str or pint.Quantity
+        ``"120 rpm"``, ``"2 rps"``, ``"2 rev/s"``, ``"2 Hz"``, ``"12.566 rad/s"`` ... (all
+        give 2.0).
+    name : str
+        Field name for error messages.
+    """
+    if isinstance(value, str):
+        value = spell_revolutions(value)
+    si = to_si(value, "1 / [time]", name)  # checks the dimension, echoing the user's text
+    return si / radians_per_turn(str(parse_quantity(value, name).units))

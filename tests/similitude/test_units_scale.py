@@ -21,3 +21,19 @@ def test_numeric_string_is_lambda():
 def test_invalid_scale_names_the_field(bad):
     with pytest.raises(UnitInputError, match="scale"):
         parse_scale(bad)
+
+
+@pytest.mark.parametrize("text", ["120 rpm", "2 rps", "2 rev/s", "120 rev/min", "2 Hz",
+                                  "12.566370614359172 rad/s"])
+def test_rotation_rates_count_revolutions(text):
+    # n of J = V/(nD) counts revolutions: 1 rev = 2 pi rad (SI Brochure, 9th ed., Table 4).
+    from similitude.units import to_rotation_rate
+
+    assert to_rotation_rate(text) == pytest.approx(2.0, rel=1e-12)
+
+
+def test_rotation_rate_of_the_wrong_dimension_is_refused():
+    from similitude.units import to_rotation_rate
+
+    with pytest.raises(UnitInputError, match="n: '3 m' has dimension"):
+        to_rotation_rate("3 m", "n")

@@ -22,7 +22,7 @@ sys.path.insert(0, str(pathlib.Path(__file__).resolve().parent.parent))
 def _case():
     import numpy as np
 
-    from similitude.case import (
+    from similitude.planning.case import (
         Case,
         FluidSpec,
         LoadingCondition,
@@ -31,7 +31,7 @@ def _case():
         Prototype,
         WaveCondition,
     )
-    from similitude.facilities import Facility
+    from similitude.planning.facilities import Facility
 
     fac = Facility("towing_tank", "benchmark tank (invented)", 200.0, 7.0, 4.0, (0.1, 8.0))
     proto = Prototype("surface_ship", 100.0, (5.0, 7.0, 9.0), FluidSpec("sea_water", 288.15))
@@ -65,8 +65,8 @@ def main(argv=None) -> int:
 
     t0 = time.perf_counter()
     import similitude as sim
-    from similitude.matrix import build_matrix
-    from similitude.report.xlsx import write_plan
+    from similitude.planning.matrix import build_matrix
+    from similitude.report.plan_workbook import write_plan
 
     t_import = time.perf_counter() - t0
     case = _case()

@@ -5,7 +5,8 @@ Run: ``python benchmarks/bench_plan.py``. Prints, as text:
 * per demo case, the time of ``similitude.load_case`` and of ``similitude.plan`` (warm: after
   one call, so the one-off imports of pandas and scipy.optimize are not counted here; the
   command-line benchmark covers the cold path);
-* the time of ``similitude.solver.search_grid(case, n_candidates=100_000)`` per case (target
+* the time of ``similitude.planning.solver.search_grid(case, n_candidates=100_000)`` per case
+    (target
   below 0.1 s on one core), against a same-run numpy baseline of the same size: Reynolds and
   Froude numbers on 1e5-element arrays, and ``fresh_water_si`` on 1e5 points;
 * a cProfile summary of one ``solve`` of the wing case, to show where its time goes.
@@ -31,7 +32,7 @@ GRID_TARGET_S = 0.1
 def numpy_baselines() -> dict[str, float]:
     """Same-size numpy work: the floor a 1e5-candidate search is compared with."""
     from fluids_props.water import fresh_water_si
-    from similitude.numbers import froude, reynolds
+    from similitude.dimensional.numbers import froude, reynolds
 
     rng = np.random.default_rng(4)
     V = rng.uniform(0.5, 10.0, N)
@@ -47,7 +48,7 @@ def numpy_baselines() -> dict[str, float]:
 
 def bench_cases() -> tuple[list[str], dict[str, float]]:
     import similitude as sim
-    from similitude.solver import search_grid
+    from similitude.planning.solver import search_grid
 
     lines, grid_times = [], {}
     for name in DEMO_CASES:
@@ -72,7 +73,7 @@ def bench_cases() -> tuple[list[str], dict[str, float]]:
 def profile_wing(top: int = 8) -> list[str]:
     """Where one ``solve`` of the wing case spends its time (cumulative, own code first)."""
     import similitude as sim
-    from similitude.solver import solve
+    from similitude.planning.solver import solve
 
     case = sim.load_case(DEMO / "wing_wind_tunnel.toml")
     solve(case)  # warm-up

@@ -15,19 +15,19 @@ from similitude.units import Q_, parse_scale, ureg
 
 # Heavier parts load on first use, so `import similitude` stays quick for the command line.
 _LAZY = {
-    "pi_groups": "similitude.dimensions",
-    "Group": "similitude.dimensions",
-    "catalogue": "similitude.groups",
-    "term_balance": "similitude.balance",
-    "scale_factors": "similitude.scaling",
-    "load_case": "similitude.case_file",
-    "plan": "similitude.planner",
-    "Plan": "similitude.planner",
-    "Case": "similitude.case",
-    "Prototype": "similitude.case",
-    "Facility": "similitude.facilities",
-    "MatchRequest": "similitude.case",
-    "extrapolate": "similitude.extrapolation",
+    "pi_groups": "similitude.dimensional.dimensions",
+    "Group": "similitude.dimensional.dimensions",
+    "catalogue": "similitude.dimensional.groups",
+    "term_balance": "similitude.dimensional.balance",
+    "scale_factors": "similitude.dimensional.scaling",
+    "load_case": "similitude.readers.case_file",
+    "plan": "similitude.planning.planner",
+    "Plan": "similitude.planning.planner",
+    "Case": "similitude.planning.case",
+    "Prototype": "similitude.planning.case",
+    "Facility": "similitude.planning.facilities",
+    "MatchRequest": "similitude.planning.case",
+    "extrapolate": "similitude.prediction.extrapolation",
 }
 
 __all__ = ["Q_", "parse_scale", "ureg", *_LAZY]

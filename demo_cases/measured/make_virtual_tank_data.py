@@ -10,8 +10,8 @@ each temperature. The low-speed runs (Fn 0.105 to 0.195) serve Prohaska's form-f
 others are the ferry's planned speeds, 10 to 18 kn full scale.
 
 The planned runs carry the run ids of the design loading (first repeat) of the plan made by
-``similitude.planner.plan`` for the ferry case, at the plan's scale; the low-speed runs have a
-blank run id (runs beyond the plan). Without the planner the script falls back to scale 1:21
+``similitude.planning.planner.plan`` for the ferry case, at the plan's scale; the low-speed runs
+have a blank run id (runs beyond the plan). Without the planner the script falls back to scale 1:21
 and free rows. Rerun the script whenever the planner's choice of scale changes.
 
 Files written beside this script (overwritten on every run):
@@ -39,7 +39,7 @@ from pathlib import Path
 import numpy as np
 
 from fluids_props.water import fresh_water_si
-from similitude.friction import friction_coefficient
+from similitude.correlations.friction import friction_coefficient
 
 HERE = Path(__file__).resolve().parent
 SEED = 20260302

@@ -84,7 +84,7 @@ def read_balance_file(path: str | Path) -> dict:
 
 def run(args) -> int:
     """Run ``similitude balance``; returns the exit code."""
-    from similitude.balance import term_balance
+    from similitude.dimensional.balance import term_balance
 
     doc = read_balance_file(args.file)
     threshold = args.threshold if args.threshold is not None else doc.get("threshold", 0.01)

@@ -19,8 +19,12 @@ from similitude.errors import InputError
 
 def add_parser(sub) -> argparse.ArgumentParser:
     """Register the ``extrapolate`` command."""
-    from similitude.extrapolation import METHODS
-    from similitude.ittc78 import AIR_RESISTANCE_METHODS, CORRELATION_METHODS, ROUGHNESS_METHODS
+    from similitude.correlations.ittc78 import (
+        AIR_RESISTANCE_METHODS,
+        CORRELATION_METHODS,
+        ROUGHNESS_METHODS,
+    )
+    from similitude.prediction.extrapolation import METHODS
 
     p = sub.add_parser(
         "extrapolate",
@@ -81,9 +85,9 @@ def add_parser(sub) -> argparse.ArgumentParser:
 def _plan_or_none(case, need_scale: bool):
     """The plan of the case, or None when the planner is not available and not needed."""
     try:
-        from similitude.planner import plan as make_plan
+        from similitude.planning.planner import plan as make_plan
     except ModuleNotFoundError as exc:
-        if exc.name != "similitude.planner":
+        if exc.name != "similitude.planning.planner":
             raise
         if need_scale:
             raise InputError("scale: the case fixes no scale and the planner is not "
@@ -131,16 +135,16 @@ def _summary(e, u=None) -> str:
 
 def run(args) -> int:
     """Run ``similitude extrapolate``; returns the exit code."""
-    from similitude.case_file import load_case
-    from similitude.extrapolation import (
+    from similitude.prediction.extrapolation import (
         ExtrapolationOptions,
         ShipParticulars,
         TankParticulars,
         extrapolate,
     )
-    from similitude.measured import read_resistance_runs
+    from similitude.prediction.uncertainty import MeasurementUncertainty, propagate
+    from similitude.readers.case_file import load_case
+    from similitude.readers.measured import read_resistance_runs
     from similitude.report.atomic import check_target
-    from similitude.uncertainty import MeasurementUncertainty, propagate
     from similitude.units import parse_scale, to_si
 
     if args.output:
@@ -209,7 +213,7 @@ def run(args) -> int:
 
 def _plan_speed_notes(runs, plan, scale: float) -> list[str]:
     """Notes where measured and planned model speeds of the same run id disagree."""
-    from similitude.measured import planned_speed_notes
+    from similitude.readers.measured import planned_speed_notes
 
     ids = _plan_runs(plan)
     matrix = getattr(plan, "matrix", None)
@@ -229,8 +233,8 @@ def _open_water(args, scale: float):
         raise InputError("--open-water and --propeller: give both (the runs and the full-scale "
                          "propeller) or neither")
     from fluids_props.water import fresh_water_si
-    from similitude.measured import read_open_water_runs
-    from similitude.open_water import PropellerParticulars, scale_open_water
+    from similitude.prediction.open_water import PropellerParticulars, scale_open_water
+    from similitude.readers.measured import read_open_water_runs
 
     prop = PropellerParticulars.from_text(args.propeller, scale)
     # Thrust and torque, if given, are reduced with the tank water at the stated temperature.

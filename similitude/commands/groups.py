@@ -2,7 +2,7 @@
 
 Each argument is ``SYMBOL=UNIT``, ``SYMBOL=VALUE UNIT`` (quote it: ``"V=2.5 m/s"``) or either
 followed by ``:ROLE`` to state the physical role (``k=m^2/s:thermal_diffusivity``). Roles not
-given are read from the symbols (see :mod:`similitude.dimensions`).
+given are read from the symbols (see :mod:`similitude.dimensional.dimensions`).
 
 Examples::
 
@@ -65,7 +65,7 @@ def _exp_text(e) -> str:
 
 def run(args) -> int:
     """Run ``similitude groups``; returns the exit code."""
-    from similitude.dimensions import analyse
+    from similitude.dimensional.dimensions import analyse
 
     variables = parse_variable_args(args.variables)
     repeating = None

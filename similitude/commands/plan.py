@@ -113,7 +113,7 @@ def _fmt(x: Any, digits: int = 4) -> str:
 
 def _group_label(key: str) -> str:
     try:
-        from similitude.groups import get
+        from similitude.dimensional.groups import get
 
         g = get(key)
         return f"{g.name} ({g.symbol})"
@@ -168,7 +168,7 @@ def summary(plan) -> str:
     else:
         lines.append(f"  checks          all {len(plan.checks)} passed")
     try:
-        from similitude.matrix import facility_time_hours
+        from similitude.planning.matrix import facility_time_hours
 
         lines.append(f"  runs            {len(plan.matrix)} runs, about "
                      f"{facility_time_hours(plan.matrix):.1f} h of facility time")
@@ -207,7 +207,7 @@ def _to_json(value: Any) -> str:
 
 def run(args) -> int:
     """Run ``similitude plan``; returns the exit code."""
-    from similitude.case_file import load_case
+    from similitude.readers.case_file import load_case
 
     targets = _targets(args)
     _check_targets(targets, args.force)
@@ -219,7 +219,7 @@ def run(args) -> int:
                   "(pip install 'similitude[plot]'); nothing was written", file=sys.stderr)
             return 1
     case = load_case(args.case)
-    from similitude.planner import plan as make_plan
+    from similitude.planning.planner import plan as make_plan
 
     plan = make_plan(case)
     # Build every text output before the first write, so a failure leaves nothing behind.

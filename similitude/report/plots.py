@@ -15,8 +15,8 @@ import pathlib
 
 import numpy as np
 
+from similitude.dimensional.numbers import G0
 from similitude.errors import InputError
-from similitude.numbers import G0
 
 PLOT_KINDS = ("all", "scale_window", "reynolds", "groups")
 
@@ -36,7 +36,7 @@ def scale_window(plan):
 
     Parameters
     ----------
-    plan : similitude.planner.Plan
+    plan : similitude.planning.planner.Plan
 
     Returns
     -------
@@ -86,7 +86,7 @@ def scale_window(plan):
                 math.sqrt(ax / (BLOCKAGE_LIMIT * fac.cross_section)), math.inf,
                 "common practice")
         nu_m = float(np.asarray(plan.model_fluid.kinematic_viscosity_si))
-        from similitude.friction import MIN_TURBULENT_MODEL_REYNOLDS
+        from similitude.correlations.friction import MIN_TURBULENT_MODEL_REYNOLDS
 
         add(f"model Reynolds number >= {MIN_TURBULENT_MODEL_REYNOLDS:.0e} at lowest speed",
             1.0, (vmin_p * lp / (nu_m * MIN_TURBULENT_MODEL_REYNOLDS)) ** (2.0 / 3.0),
@@ -135,7 +135,7 @@ def _draw_window(plan, ax) -> None:
 
 
 def _draw_reynolds(plan, ax) -> None:
-    from similitude.friction import friction_coefficient
+    from similitude.correlations.friction import friction_coefficient
 
     m = plan.matrix
     by = m.groupby("prototype speed [m/s]", sort=True).first().reset_index()
@@ -164,7 +164,7 @@ def plot_plan(plan, kind: str = "all", ax=None, path=None, overwrite: bool = Fal
 
     Parameters
     ----------
-    plan : similitude.planner.Plan
+    plan : similitude.planning.planner.Plan
     kind : {"all", "scale_window", "reynolds", "groups"}
         ``"groups"`` (the default of ``Plan.plot``) draws both panels, like ``"all"``.
     ax : matplotlib Axes, or a pair of Axes for ``"all"``, optional

@@ -8,9 +8,9 @@ import matplotlib
 import pytest
 
 import similitude as sim
-from similitude.case import Case, FluidSpec, MatchRequest, MatrixSpec, Prototype
 from similitude.errors import InputError
-from similitude.facilities import Facility
+from similitude.planning.case import Case, FluidSpec, MatchRequest, MatrixSpec, Prototype
+from similitude.planning.facilities import Facility
 from similitude.report import plots
 
 matplotlib.use("Agg")
@@ -81,7 +81,7 @@ def test_unknown_plot_kind_is_a_one_line_input_error(plan):
 
 
 def test_importing_the_plot_module_does_not_import_matplotlib():
-    code = ("import sys, similitude.report.plots, similitude.report.xlsx; "
+    code = ("import sys, similitude.report.plots, similitude.report.plan_workbook; "
             "print('matplotlib' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                          check=True).stdout.strip()

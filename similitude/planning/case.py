@@ -1,0 +1,379 @@
+"""The case: prototype, facility, matching request and run-matrix specification (SI inside).
+
+A Case is built in Python or read from a TOML case file (:mod:`similitude.readers.case_file`). All
+fields are SI floats; units live only at the edge. The dataclasses are frozen: a plan never
+changes the case it was made from.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+from similitude.errors import InputError
+from similitude.planning.facilities import Facility
+
+PROTOTYPE_KINDS = (
+    "surface_ship",
+    "submerged_body",
+    "offshore_structure",
+    "propeller",
+    "bluff_body",
+    "vehicle",
+    "wing",
+)
+
+#: Names of the groups a request may ask to match (keys of :mod:`similitude.dimensional.groups`).
+MATCHABLE_GROUPS = (
+    "froude",
+    "reynolds",
+    "mach",
+    "weber",
+    "cavitation",
+    "advance_ratio",
+    "strouhal",
+    "depth_froude",
+)
+
+OBJECTIVES = ("largest_model", "least_mismatch", "smallest_model")
+
+#: Dimension keys of :class:`Prototype` that are areas [m^2] or volumes [m^3]; every other key
+#: is a length [m]. Under geometric similarity they scale as lambda^2 and lambda^3.
+AREA_KEYS = ("wetted_surface", "midship_area", "frontal_area", "lateral_area",
+             "transverse_area", "bilge_keel_area", "waterplane_area", "disk_area")
+VOLUME_KEYS = ("displacement", "volume")
+
+
+def dimension_power(key: str) -> int:
+    """Power of the length scale in a dimension: 1 for lengths, 2 for areas, 3 for volumes.
+
+    Keys listed in :data:`AREA_KEYS` or ending in ``_area`` are areas; keys in
+    :data:`VOLUME_KEYS` or ending in ``_volume`` are volumes; all others are lengths.
+    """
+    if key in AREA_KEYS or key.endswith("_area"):
+        return 2
+    if key in VOLUME_KEYS or key.endswith("_volume"):
+        return 3
+    return 1
+
+
+def _positive(name: str, value: float | None, allow_none: bool = True) -> None:
+    if value is None:
+        if allow_none:
+            return
+        raise InputError(f"{name}: missing; expected a positive value")
+    if not (isinstance(value, (int, float)) and math.isfinite(value) and value > 0):
+        raise InputError(f"{name}: {value!r} is not valid; expected a positive finite number")
+
+
+@dataclass(frozen=True)
+class FluidSpec:
+    """A fluid at a state.
+
+    Attributes
+    ----------
+    name : str
+        Fluid name of the :func:`fluids_props.list_fluids` catalogue (``"sea_water"``...).
+    temperature : float
+        Temperature [K].
+    pressure : float or None
+        Absolute pressure [Pa]; None means the fluid's default (0.101325 MPa).
+    salinity : float or None
+        Absolute salinity [kg/kg] for sea water; None means 35.16504 g/kg.
+    relative_humidity : float
+        Relative humidity [-] for air.
+    mass_fraction : float or None
+        Solute mass fraction [kg/kg] of a mixture whose catalogue entry takes one (the glycerol
+        mass fraction of ``"glycerol_water"``); None for pure fluids.
+    """
+
+    name: str
+    temperature: float
+    pressure: float | None = None
+    salinity: float | None = None
+    relative_humidity: float = 0.0
+    mass_fraction: float | None = None
+
+    def __post_init__(self) -> None:
+        _positive("fluid.temperature", self.temperature, allow_none=False)
+        _positive("fluid.pressure", self.pressure)
+        w = self.mass_fraction
+        if w is not None and not (isinstance(w, (int, float)) and not isinstance(w, bool)
+                                  and math.isfinite(w) and 0.0 <= w <= 1.0):
+            raise InputError(f"fluid.mass_fraction: {w!r} is not valid; expected a mass "
+                             "fraction between 0 and 1 [kg/kg]")
+
+
+@dataclass(frozen=True)
+class Prototype:
+    """The full-scale object.
+
+    Attributes
+    ----------
+    kind : str
+        One of :data:`PROTOTYPE_KINDS`.
+    length : float
+        Reference length [m]: waterline length for ships, chord for a wing, diameter for a
+        propeller, characteristic size for a bluff body.
+    speeds : tuple of float
+        Operating speeds [m/s] (ship speed, free-stream or advance speed).
+    fluid : FluidSpec
+        The prototype's fluid and its state.
+    name : str
+        A label.
+    dimensions : dict of str to float
+        Further lengths [m] and areas [m^2], by key: ``beam``, ``draught``, ``wetted_surface``,
+        ``midship_area`` (A_X), ``frontal_area``, ``lateral_area``, ``span``, ``diameter``,
+        ``height``, ``displacement`` [m^3], ``transverse_area`` (A_T, above water, for air
+        resistance), ``bilge_keel_area``, ``blade_chord`` (0.7R chord for a propeller) ...
+    rotation_rates : tuple of float
+        Propeller rotation rates [1/s] paired with ``speeds`` (empty when not a propeller).
+    water_depth : float or None
+        Water depth at the operating site [m]; None means deep water.
+    immersion : float or None
+        Depth of the reference point below the free surface [m] (shaft centre of a propeller,
+        centre of a submerged body); used for the cavitation number.
+    ambient_pressure : float
+        Pressure above the free surface [Pa] (atmospheric).
+    """
+
+    kind: str
+    length: float
+    speeds: tuple[float, ...]
+    fluid: FluidSpec
+    name: str = "prototype"
+    dimensions: dict = field(default_factory=dict)
+    rotation_rates: tuple[float, ...] = ()
+    water_depth: float | None = None
+    immersion: float | None = None
+    ambient_pressure: float = 101325.0
+
+    def __post_init__(self) -> None:
+        if self.kind not in PROTOTYPE_KINDS:
+            raise InputError(
+                f"prototype.kind: {self.kind!r} is unknown; expected one of "
+                + ", ".join(PROTOTYPE_KINDS)
+            )
+        _positive("prototype.length", self.length, allow_none=False)
+        if not self.speeds:
+            raise InputError("prototype.speeds: empty; expected at least one speed")
+        for i, v in enumerate(self.speeds):
+            _positive(f"prototype.speeds[{i}]", v, allow_none=False)
+        for i, n in enumerate(self.rotation_rates):
+            _positive(f"prototype.rotation_rates[{i}]", n, allow_none=False)
+        for key, v in self.dimensions.items():
+            _positive(f"prototype.dimensions.{key}", v, allow_none=False)
+        _positive("prototype.water_depth", self.water_depth)
+        _positive("prototype.ambient_pressure", self.ambient_pressure, allow_none=False)
+
+    def dimension(self, key: str, default: float | None = None) -> float | None:
+        """A further dimension [m or m^2] by key, or ``default``."""
+        return self.dimensions.get(key, default)
+
+
+@dataclass(frozen=True)
+class MatchRequest:
+    """What the model must reproduce.
+
+    Attributes
+    ----------
+    exact : tuple of str
+        Groups to match exactly, in priority order (names of :data:`MATCHABLE_GROUPS`).
+    report : tuple of str
+        Groups only to report (their mismatch is computed and explained).
+    scale : float or None
+        Fixed scale lambda = L_prototype / L_model.
+    model_length : float or None
+        Length of an existing model [m] (fixes the scale).
+    model_fluid : FluidSpec or None
+        Fixed model fluid and state (otherwise the solver chooses within the facility).
+    objective : str
+        How to choose among feasible models: ``"largest_model"`` (default for free-surface
+        tests: least Reynolds mismatch), ``"least_mismatch"`` (minimise the log-mismatch of the
+        unmatched groups) or ``"smallest_model"``.
+    friction_line : str
+        Friction line for the Reynolds scale effect
+        (:data:`similitude.correlations.friction.FRICTION_LINES`; default the ITTC-1957 line).
+    form_factor : float or None
+        Form factor k of the 1978 ITTC method [-] when known (None: k = 0 in the estimates).
+    relax : bool
+        When the exact groups cannot all be met inside the facility, drop the lowest-priority
+        one (last in ``exact``), keep the others exact and minimise its log-mismatch instead;
+        the plan says so in its notes. False: raise InfeasibleError instead.
+    round_scale : bool
+        For the ``"largest_model"`` and ``"smallest_model"`` objectives, replace the limiting
+        scale by the nearest convenient one that still satisfies every limit (rounded up for
+        the largest model, down for the smallest; see
+        :func:`similitude.planning.solver.convenient_scale`) and re-solve at it; the limiting scale
+        is kept in the solution and the plan notes. False: keep the limiting scale itself.
+    """
+
+    exact: tuple[str, ...] = ("froude",)
+    report: tuple[str, ...] = ("reynolds",)
+    scale: float | None = None
+    model_length: float | None = None
+    model_fluid: FluidSpec | None = None
+    objective: str = "largest_model"
+    friction_line: str = "ittc1957"
+    form_factor: float | None = None
+    relax: bool = True
+    round_scale: bool = True
+
+    def __post_init__(self) -> None:
+        for key in ("relax", "round_scale"):
+            if not isinstance(getattr(self, key), bool):
+                raise InputError(f"match.{key}: {getattr(self, key)!r} is not valid; expected "
+                                 "true or false")
+        for key, names in (("match.exact", self.exact), ("match.report", self.report)):
+            for g in names:
+                if g not in MATCHABLE_GROUPS:
+                    raise InputError(
+                        f"{key}: {g!r} is not a group the planner can match; expected one of "
+                        + ", ".join(MATCHABLE_GROUPS)
+                    )
+        if len(set(self.exact)) != len(self.exact):
+            raise InputError(f"match.exact: {list(self.exact)!r} names a group twice")
+        _positive("match.scale", self.scale)
+        _positive("match.model_length", self.model_length)
+        if self.scale is not None and self.model_length is not None:
+            raise InputError(
+                "match.scale and match.model_length: both given; expected one of them"
+            )
+        from similitude.correlations.friction import FRICTION_LINES
+
+        if self.friction_line not in FRICTION_LINES:
+            raise InputError(
+                f"match.friction_line: {self.friction_line!r} is unknown; expected one of "
+                + ", ".join(FRICTION_LINES)
+            )
+        if self.form_factor is not None and not (
+                isinstance(self.form_factor, (int, float)) and math.isfinite(self.form_factor)
+                and 0 <= self.form_factor < 2):
+            raise InputError(f"match.form_factor: {self.form_factor!r} is not valid; expected "
+                             "k between 0 and 2")
+        if self.objective not in OBJECTIVES:
+            raise InputError(
+                f"match.objective: {self.objective!r} is unknown; expected one of "
+                + ", ".join(OBJECTIVES)
+            )
+
+
+@dataclass(frozen=True)
+class LoadingCondition:
+    """A loading condition of the prototype (full-scale values).
+
+    Attributes
+    ----------
+    name : str
+    draught : float or None
+        Mean draught [m].
+    trim : float
+        Trim [m], positive by the stern.
+    displacement : float or None
+        Displacement volume [m^3].
+    """
+
+    name: str
+    draught: float | None = None
+    trim: float = 0.0
+    displacement: float | None = None
+
+
+@dataclass(frozen=True)
+class WaveCondition:
+    """A wave condition at full scale.
+
+    Attributes
+    ----------
+    kind : str
+        ``"regular"`` or ``"irregular"``.
+    period : float or None
+        Regular-wave period [s].
+    length_ratio : float or None
+        Regular-wave length over prototype length [-] (alternative to ``period``).
+    height : float or None
+        Regular-wave height [m].
+    steepness : float or None
+        Regular-wave steepness H/lambda_w [-] (alternative to ``height``).
+    significant_height : float or None
+        Irregular sea H_s [m].
+    peak_period : float or None
+        Irregular sea T_p [s].
+    spectrum : str
+        ``"jonswap"`` or ``"ittc"`` (two-parameter Bretschneider / ITTC 1978).
+    gamma : float
+        JONSWAP peak enhancement factor [-].
+    duration : float or None
+        Full-scale duration of the irregular sea to be realised [s] (e.g. 3 h = 10800 s).
+    name : str
+    """
+
+    kind: str
+    period: float | None = None
+    length_ratio: float | None = None
+    height: float | None = None
+    steepness: float | None = None
+    significant_height: float | None = None
+    peak_period: float | None = None
+    spectrum: str = "jonswap"
+    gamma: float = 3.3
+    duration: float | None = None
+    name: str = ""
+
+
+@dataclass(frozen=True)
+class MatrixSpec:
+    """What runs to make.
+
+    Attributes
+    ----------
+    speeds : tuple of float
+        Speeds of the runs, read according to ``speed_basis``: prototype speeds [m/s],
+        Froude numbers [-] or model speeds [m/s]. Empty: the prototype's operating speeds.
+    speed_basis : str
+        ``"prototype"``, ``"froude"`` or ``"model"``.
+    loading : tuple of LoadingCondition
+        Loading conditions (empty: the design condition only).
+    headings : tuple of float
+        Wave headings [deg] (180 = head seas); empty: one heading, not stated.
+    current : float
+        Full-scale current speed [m/s] (0 if none).
+    waves : tuple of WaveCondition
+        Wave conditions; empty: calm water.
+    repeats : int
+        Number of repeats of each run (for repeatability/uncertainty).
+    waiting_time : float or None
+        Waiting time between runs [s]; None: the planner's estimate.
+    """
+
+    speeds: tuple[float, ...] = ()
+    speed_basis: str = "prototype"
+    loading: tuple[LoadingCondition, ...] = ()
+    headings: tuple[float, ...] = ()
+    current: float = 0.0
+    waves: tuple[WaveCondition, ...] = ()
+    repeats: int = 1
+    waiting_time: float | None = None
+
+
+@dataclass(frozen=True)
+class Case:
+    """A whole planning case.
+
+    Attributes
+    ----------
+    prototype : Prototype
+    facility : Facility
+    request : MatchRequest
+    matrix : MatrixSpec
+    metadata : dict
+        Project, client, author, date ... (strings), shown in reports.
+    name : str
+    """
+
+    prototype: Prototype
+    facility: Facility
+    request: MatchRequest = field(default_factory=MatchRequest)
+    matrix: MatrixSpec = field(default_factory=MatrixSpec)
+    metadata: dict = field(default_factory=dict)
+    name: str = "case"

@@ -1,0 +1,454 @@
+"""The test plan: scale, model, fluid state, speeds, groups, conflicts, checks and run matrix.
+
+``plan(case)`` runs the solver (:mod:`similitude.planning.solver`), the facility checks
+(:mod:`similitude.planning.checks`) and the conflict analysis
+(:mod:`similitude.planning.conflicts`), and returns a
+frozen :class:`Plan` with tables (pandas DataFrames, units in the column headers) for the
+notebook, the workbook writer and the command line.
+
+Example
+-------
+>>> import similitude as sim                                  # doctest: +SKIP
+>>> p = sim.plan(case)                                        # doctest: +SKIP
+>>> p.scale, p.model_length, p.speeds                         # doctest: +SKIP
+
+References
+----------
+.. [1] ITTC, Recommended Procedures and Guidelines 7.5-02-02-01, "Resistance Test", Rev 03,
+       2011 (what a resistance-test plan states: model, scale, water properties, turbulence
+       stimulation, tank particulars).
+"""
+
+from __future__ import annotations
+
+import html
+import math
+from dataclasses import asdict, dataclass, field, replace
+
+import numpy as np
+
+from fluids_props import FluidState
+from similitude.planning.case import Case, dimension_power
+from similitude.planning.findings import Check, Conflict
+from similitude.planning.solution import Solution
+
+_KN = 1852.0 / 3600.0
+
+
+@dataclass(frozen=True)
+class Plan:
+    """A solved test plan (SI floats; DataFrames with units in headers).
+
+    Attributes
+    ----------
+    case : Case
+    solution : Solution
+    scale : float
+        lambda = L_p / L_m [-].
+    model_length : float
+        Model reference length [m].
+    model_dimensions : dict
+        Model lengths [m], areas [m^2], volumes [m^3] by the keys of
+        ``Prototype.dimensions``, plus ``"length"``.
+    prototype_fluid, model_fluid : FluidState
+        Scalar states.
+    speeds : pandas.DataFrame
+        One row per prototype operating speed.
+    groups : pandas.DataFrame
+        One row per (group, prototype speed).
+    conflicts : tuple of Conflict
+        Unmatched groups at the design (highest) speed.
+    checks : tuple of Check
+    scale_factors : pandas.DataFrame
+    matrix : pandas.DataFrame
+    notes : tuple of str
+    binding_constraint : str
+    """
+
+    case: Case
+    solution: Solution
+    scale: float
+    model_length: float
+    model_dimensions: dict
+    prototype_fluid: FluidState
+    model_fluid: FluidState
+    speeds: object
+    groups: object
+    conflicts: tuple[Conflict, ...]
+    checks: tuple[Check, ...]
+    scale_factors: object
+    matrix: object
+    notes: tuple[str, ...] = ()
+    binding_constraint: str = ""
+    extra: dict = field(default_factory=dict)
+
+    # -- outputs -----------------------------------------------------------------------------
+    def to_excel(self, path, overwrite: bool = False):
+        """Write the plan workbook (``similitude.report.plan_workbook.write_plan``); returns the
+        Path.
+
+        Refuses to overwrite an existing file unless ``overwrite=True``.
+        """
+        from similitude.report.plan_workbook import write_plan
+
+        return write_plan(self, path, overwrite=overwrite)
+
+    def plot(self, kind: str = "groups", **kwargs):
+        """Plot the plan (``similitude.report.plots.plot_plan``; matplotlib needed)."""
+        from similitude.report.plots import plot_plan
+
+        return plot_plan(self, kind=kind, **kwargs)
+
+    def to_dict(self) -> dict:
+        """The plan as JSON-ready plain data (SI values, unit-bearing keys)."""
+        def frame(df):
+            if df is None:
+                return []
+            return [{str(k): _plain(v) for k, v in row.items()}
+                    for row in df.to_dict(orient="records")]
+
+        def check(c: Check) -> dict:
+            d = {k: _plain(v) for k, v in asdict(c).items()}
+            d["margin"] = _plain(c.margin)
+            return d
+
+        def conflict(c: Conflict) -> dict:
+            d = {k: _plain(v) for k, v in asdict(c).items()}
+            d["ratio"] = _plain(c.ratio)
+            return d
+
+        sol = self.solution
+        return {
+            "case": self.case.name,
+            "prototype": self.case.prototype.name,
+            "facility": self.case.facility.name,
+            "scale": self.scale,
+            "scale_text": f"1:{self.scale:.4g}",
+            "limiting_scale": _plain(sol.extra.get("limiting_scale", self.scale)),
+            "model_length [m]": self.model_length,
+            "model_dimensions": {k: _plain(v) for k, v in self.model_dimensions.items()},
+            "prototype_fluid": _state_dict(self.prototype_fluid),
+            "model_fluid": _state_dict(self.model_fluid),
+            "velocity_ratio": sol.velocity_ratio,
+            "rotation_ratio": _plain(sol.rotation_ratio),
+            "model_pressure [Pa]": _plain(sol.model_pressure),
+            "exact": list(sol.exact),
+            "objective": sol.objective,
+            "binding_constraint": self.binding_constraint,
+            "candidates_searched": sol.candidates_searched,
+            "speeds": frame(self.speeds),
+            "groups": frame(self.groups),
+            "conflicts": [conflict(c) for c in self.conflicts],
+            "checks": [check(c) for c in self.checks],
+            "scale_factors": frame(self.scale_factors),
+            "matrix": frame(self.matrix),
+            "notes": list(self.notes),
+        }
+
+    # -- display -----------------------------------------------------------------------------
+    def _headline(self) -> list[str]:
+        c = self.case
+        mf = self.model_fluid
+        t = float(mf.temperature_si)
+        p = self.solution.extra.get("static_pressure", float(mf.pressure_si))
+        tp = float(self.prototype_fluid.temperature_si)
+        return [
+            f"Plan '{c.name}': {c.prototype.name} ({c.prototype.kind}, L = "
+            f"{c.prototype.length:.4g} m) in {c.facility.name} ({c.facility.kind})",
+            f"  scale 1:{self.scale:.4g}; model length {self.model_length:.4g} m"
+            + (f" (limiting scale 1:{self.solution.extra['limiting_scale']:.6g})"
+               if self.solution.extra.get("limiting_scale", self.scale) != self.scale
+               else ""),
+            f"  model fluid {mf.fluid} at {t - 273.15:.2f} degC, {p / 1000:.6g} kPa "
+            f"(nu = {float(mf.kinematic_viscosity_si):.4g} m^2/s); prototype "
+            f"{self.prototype_fluid.fluid} at {tp - 273.15:.2f} degC",
+            f"  exact: {', '.join(self.solution.exact)}; binding: {self.binding_constraint}",
+        ]
+
+    def __repr__(self) -> str:
+        lines = self._headline()
+        lines.append("  speeds:")
+        for row in self.speeds.to_dict(orient="records"):
+            lines.append("    " + ", ".join(f"{k} {_fmt(v)}" for k, v in row.items()))
+        for group, _ in self.solution.extra.get("relaxed", ()):
+            lines.append(f"  relaxed: {group} was requested exact but is not attainable here; "
+                         "its mismatch is minimised (see notes)")
+        if self.conflicts:
+            lines.append("  not matched:")
+            for cf in self.conflicts:
+                lines.append(f"    {cf.group}: prototype/model = {cf.ratio:.4g}")
+        n = {s: sum(1 for ch in self.checks if ch.status == s) for s in
+             ("ok", "warning", "fail")}
+        lines.append(f"  checks: {n['ok']} ok, {n['warning']} warning, {n['fail']} fail")
+        for ch in self.checks:
+            if ch.status in ("warning", "fail"):
+                lines.append(f"    {ch.status}: {ch.name} {_fmt(ch.value)} "
+                             f"(limit {_fmt(ch.limit)} {ch.unit})".rstrip())
+        lines.append(f"  runs: {len(self.matrix) if self.matrix is not None else 0}")
+        return "\n".join(lines)
+
+    def _repr_html_(self) -> str:
+        import pandas as pd
+
+        head = "<br>".join(html.escape(s.strip()) for s in self._headline())
+        checks = pd.DataFrame([{"check": c.name, "value": c.value, "limit": c.limit,
+                                "unit": c.unit, "status": c.status, "margin": c.margin,
+                                "source": c.source} for c in self.checks])
+        conf = "".join(f"<li><b>{html.escape(c.group)}</b>: {html.escape(c.consequence)}</li>"
+                       for c in self.conflicts)
+        notes = "".join(f"<li>{html.escape(n)}</li>" for n in self.notes)
+        return (
+            f"<div><p>{head}</p><h4>Speeds</h4>{self.speeds.to_html(index=False)}"
+            f"<h4>Groups (design speed)</h4>{self._design_groups().to_html(index=False)}"
+            f"<h4>Conflicts</h4><ul>{conf}</ul><h4>Checks</h4>"
+            f"{checks.to_html(index=False)}<h4>Notes</h4><ul>{notes}</ul></div>"
+        )
+
+    def _design_groups(self):
+        vmax = max(self.case.prototype.speeds)
+        g = self.groups
+        return g[np.isclose(g["prototype speed [m/s]"], vmax)]
+
+
+def _fmt(v) -> str:
+    if isinstance(v, (float, np.floating)):
+        return f"{float(v):.4g}"
+    return str(v)
+
+
+def _plain(v):
+    if isinstance(v, dict):
+        return {str(k): _plain(x) for k, x in v.items()}
+    if isinstance(v, (list, tuple)):
+        return [_plain(x) for x in v]
+    if isinstance(v, np.ndarray):
+        return [_plain(x) for x in v.tolist()]
+    if isinstance(v, (np.bool_, bool)):
+        return bool(v)
+    if isinstance(v, (np.integer,)):
+        return int(v)
+    if isinstance(v, (float, np.floating)):
+        f = float(v)
+        return f if math.isfinite(f) else None
+    if hasattr(v, "isoformat"):
+        return v.isoformat()
+    return v
+
+
+def _state_dict(st: FluidState) -> dict:
+    d = {"fluid": st.fluid}
+    d.update({k: _plain(np.asarray(v, dtype=float).item()) for k, v in st.as_dict().items()})
+    return d
+
+
+def _relevant_groups(prob) -> tuple[str, ...]:
+    from similitude.planning.case import MATCHABLE_GROUPS
+
+    case = prob.case
+    st = prob.proto.state
+    keys = set(case.request.exact) | set(case.request.report) | {"reynolds"}
+    # Gravity matters with a free surface or in a liquid (hydrostatic pressure gradient, e.g.
+    # over a propeller disc); for a body in a gas the Froude number is left out unless asked.
+    if (case.facility.free_surface or st.surface_tension_si is not None
+            or case.prototype.kind in ("surface_ship", "offshore_structure")):
+        keys.add("froude")
+    if st.speed_of_sound_si is not None:
+        keys.add("mach")
+    if st.surface_tension_si is not None and case.facility.free_surface:
+        keys.add("weber")
+    if st.vapour_pressure_si is not None and (prob.propeller or
+                                               case.prototype.immersion is not None):
+        keys.add("cavitation")
+    if case.prototype.rotation_rates:
+        keys.add("advance_ratio")
+    if case.prototype.water_depth is not None and case.facility.free_surface:
+        keys.add("depth_froude")
+    return tuple(k for k in MATCHABLE_GROUPS if k in keys)
+
+
+def _groups_table(prob, c, keys, requested_exact):
+    import pandas as pd
+
+    from similitude.dimensional import groups as group_catalogue
+    from similitude.planning.solver import group_value, model_groups
+
+    rows = []
+    exact = set(requested_exact)
+    speeds = np.asarray(prob.case.prototype.speeds, dtype=float)
+    pvals = {k: np.asarray(group_value(k, prob.proto, prob.propeller), dtype=float)
+             for k in keys}
+    for k in keys:
+        try:
+            g = group_catalogue.get(k)
+            name, symbol = g.name, g.symbol
+        except Exception:  # the catalogue names only what it knows
+            name, symbol = k.replace("_", " "), k
+        for i, vp in enumerate(speeds):
+            gp = float(np.ravel(pvals[k])[i]) if np.ndim(pvals[k]) else float(pvals[k])
+            gm = float(model_groups(prob, c, i, (k,))[k][0])
+            if not (np.isfinite(gp) and np.isfinite(gm)):
+                continue
+            ratio = gp / gm if gm else float("inf")
+            rows.append({
+                "group": name, "symbol": symbol, "key": k, "prototype speed [m/s]": vp,
+                "prototype value": gp, "model value": gm, "ratio": ratio,
+                "matched": bool(abs(ratio - 1.0) <= 1e-6),
+                "requested": "exact" if k in exact else "report",
+            })
+    return pd.DataFrame(rows, columns=["group", "symbol", "key", "prototype speed [m/s]",
+                                       "prototype value", "model value", "ratio", "matched",
+                                       "requested"])
+
+
+def _speeds_table(case: Case, solution: Solution):
+    import pandas as pd
+
+    vp = np.asarray(case.prototype.speeds, dtype=float)
+    data = {
+        "prototype speed [m/s]": vp,
+        "prototype speed [kn]": vp / _KN,
+        "model speed [m/s]": vp * solution.velocity_ratio,
+    }
+    if case.prototype.rotation_rates and solution.rotation_ratio is not None:
+        n = np.asarray(case.prototype.rotation_rates, dtype=float)
+        data["prototype rotation rate [1/s]"] = n
+        data["model rotation rate [1/s]"] = n * solution.rotation_ratio
+    return pd.DataFrame(data)
+
+
+def _scale_factors(case, solution):
+    from similitude.dimensional import scaling
+
+    rho_ratio = float(solution.prototype_fluid.density_si) / float(
+        solution.model_fluid.density_si)
+    if "froude" in solution.exact:
+        return scaling.scale_factor_table(solution.scale, law="froude",
+                                          density_ratio=rho_ratio)
+    return scaling.scale_factor_table(solution.scale, law="general", density_ratio=rho_ratio,
+                                      velocity_ratio=1.0 / solution.velocity_ratio)
+
+
+def plan(case: Case, n_candidates: int | None = None) -> Plan:
+    """Plan a model test: solve for scale, speed and fluid state and report what it costs.
+
+    Parameters
+    ----------
+    case : Case
+        Prototype, facility, matching request and run-matrix specification (SI).
+    n_candidates : int, optional
+        Size of the solver's search grid (default
+        :data:`similitude.planning.solver.DEFAULT_CANDIDATES`).
+
+    Returns
+    -------
+    Plan
+
+    Raises
+    ------
+    InputError
+        Bad or contradictory input (one line naming the field, value and expectation).
+    InfeasibleError
+        No model fits the facility; the message names the binding limit and by how much.
+    """
+    from similitude.planning import solver
+    from similitude.planning.checks import facility_checks
+    from similitude.planning.conflicts import blockage_notes, find_conflicts
+    from similitude.planning.matrix import build_matrix
+
+    if not isinstance(case, Case):
+        from similitude.errors import InputError
+
+        raise InputError(f"case: got {type(case).__name__}; expected a similitude Case")
+    sol = solver.solve(case, n_candidates or solver.DEFAULT_CANDIDATES)
+    # A relaxed solution was found for a request with its last exact group dropped.
+    solved_case = replace(case, request=sol.extra["request"]) if "request" in sol.extra \
+        else case
+    prob = solver.build_problem(solved_case)
+    c = solver.candidate_at(prob, sol)
+    proto = case.prototype
+    lam = sol.scale
+    dims = {"length": proto.length / lam}
+    for k, v in proto.dimensions.items():
+        dims[k] = v / lam ** dimension_power(k)
+    keys = _relevant_groups(prob)
+    keys = tuple(dict.fromkeys(keys + tuple(g for g in case.request.exact if g not in keys)))
+    groups = _groups_table(prob, c, keys, case.request.exact)
+    conflicts = find_conflicts(prob, c, [k for k in keys if k not in sol.exact])
+    checks = facility_checks(prob, c)
+    notes = list(_notes(case, sol, checks))
+    notes.extend(blockage_notes(prob, c))
+    return Plan(
+        case=case, solution=sol, scale=lam, model_length=proto.length / lam,
+        model_dimensions=dims, prototype_fluid=sol.prototype_fluid,
+        model_fluid=sol.model_fluid, speeds=_speeds_table(case, sol), groups=groups,
+        conflicts=conflicts, checks=checks, scale_factors=_scale_factors(case, sol),
+        matrix=build_matrix(case, sol), notes=tuple(notes), binding_constraint=sol.binding,
+    )
+
+
+def _temperature_notes(case: Case, sol: Solution) -> list[str]:
+    """How the model fluid temperature was chosen, and where the test-day value goes."""
+    fac = case.facility
+    mf = sol.model_fluid
+    t = float(mf.temperature_si) - 273.15
+    workbook = ("enter the temperature measured on the test day in the temperature cell of "
+                "the workbook's 'Test day' sheet, which recomputes the model fluid properties, "
+                "Reynolds numbers and friction coefficients for the runs")
+    fixed = case.request.model_fluid
+    if fixed is not None:
+        return [f"Model fluid temperature {t:.2f} degC is fixed by the case "
+                f"(match.model_fluid); {workbook}."]
+    lo, hi = fac.temperature_range
+    if hi <= lo:
+        return [f"Model fluid temperature {t:.2f} degC is the facility's only temperature; "
+                f"{workbook}."]
+    if not fac.free_surface:
+        return []
+    solved = sol.extra.get("request", case.request)
+    reported = ", ".join(solved.report) or "reynolds"
+    return [
+        f"Model water temperature {t:.2f} degC was chosen within the facility range "
+        f"{lo - 273.15:.1f}-{hi - 273.15:.1f} degC to minimise the mismatch of the reported "
+        f"groups ({reported}; the Reynolds mismatch in a resistance test). A tank's water is "
+        f"at whatever temperature it has on the day: {workbook}; to plan at a known "
+        "temperature, fix it with match.model_fluid."
+    ]
+
+
+def _notes(case: Case, sol: Solution, checks) -> list[str]:
+    from similitude.correlations.friction import turbulence_stimulation_advice
+
+    out = []
+    mf = sol.model_fluid
+    out.append(
+        f"Model fluid chosen: {mf.fluid} at {float(mf.temperature_si) - 273.15:.2f} degC "
+        f"(objective '{sol.objective}'); the scale is set by: {sol.binding}."
+    )
+    out.append("Exact groups (" + ", ".join(sol.exact) + ") hold to 1e-9 relative at every "
+               "prototype speed; all values are SI.")
+    if sol.extra.get("solved_by"):
+        out.append(f"The second exact group is met through the {sol.extra['solved_by']}.")
+    rounding = sol.extra.get("scale_rounding")
+    if rounding:
+        lam0 = sol.extra["limiting_scale"]
+        if rounding.startswith("rounded"):
+            out.append(
+                f"Scale {rounding}: the facility limits allow 1:{lam0:.6g} "
+                f"({sol.extra['limiting_binding']}); every limit still holds at "
+                f"1:{sol.scale:g} (switch off with round_scale = false)."
+            )
+        else:
+            out.append(f"Scale kept at the limiting 1:{lam0:.4g}, {rounding}.")
+    out.extend(_temperature_notes(case, sol))
+    if case.prototype.kind in ("surface_ship", "submerged_body") and case.facility.free_surface:
+        out.append(turbulence_stimulation_advice(case.prototype.length / sol.scale))
+    for group, reason in sol.extra.get("relaxed", ()):
+        out.append(f"Requested exact group '{group}' cannot be met inside the facility, so it "
+                   f"is minimised instead while the others stay exact. Reason: {reason}")
+    fails = [c for c in checks if c.status == "fail"]
+    if fails:
+        out.append("Failed checks: " + "; ".join(c.name for c in fails) + ".")
+    return out
+
+
+__all__ = ["Plan", "plan"]

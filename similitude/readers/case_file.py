@@ -1,0 +1,894 @@
+"""Case files: a planning case written in TOML, read into a :class:`similitude.planning.case.Case`.
+
+A case file has five tables (the key names are this project's own; the README's "Case files"
+section is the full reference with a commented example)::
+
+    [about]        title, project, client, author, date, note
+    [prototype]    kind, name, length, speeds, rotation_rates, water_depth, immersion,
+                   air_pressure, [prototype.sizes], [prototype.fluid]
+    facility       an inline [facility] table, a [facility] table with file = "path", or a
+                   top-level path string to a facility file (relative to the case file)
+    [matching]     exact, report, scale, model_length, choose, friction_line, form_factor,
+                   round_scale,
+                   [matching.model_fluid]
+    [runs]         speeds, speeds_as, repeats, headings, current, wait_between_runs,
+                   [[runs.loading]], [[runs.waves]]
+
+Quantities are strings with units (``"18 kn"``, ``"15 degC"``, ``"35 g/kg"``, ``"2 bar"``) and
+the scale is ``"1:25"``. Everything is converted to SI here; the dataclasses hold SI floats.
+
+Reading never stops at the first problem: every problem found is collected and reported at once
+in one :class:`similitude.errors.InputError`, one line per problem, each naming the key path,
+the value and what was expected. Unknown keys are problems too, with a "did you mean" hint.
+"""
+
+from __future__ import annotations
+
+import datetime as _dt
+import difflib
+import math
+import tomllib
+from collections.abc import Mapping
+from pathlib import Path
+from typing import Any
+
+from similitude.errors import BAD_INPUT_ERRORS, InputError
+from similitude.planning.case import (
+    MATCHABLE_GROUPS,
+    OBJECTIVES,
+    PROTOTYPE_KINDS,
+    Case,
+    FluidSpec,
+    LoadingCondition,
+    MatchRequest,
+    MatrixSpec,
+    Prototype,
+    WaveCondition,
+)
+from similitude.planning.facilities import FACILITY_KINDS, Facility
+from similitude.units import (
+    UnitInputError,
+    parse_quantity,
+    parse_scale,
+    to_rotation_rate,
+    to_si,
+)
+
+__all__ = ["load_case", "load_facility", "parse_case", "parse_facility", "CASE_KEYS"]
+
+# Dimensions, with a phrase for messages ------------------------------------------------------
+LENGTH = "[length]"
+AREA = "[length] ** 2"
+VOLUME = "[length] ** 3"
+SPEED = "[length] / [time]"
+TIME = "[time]"
+TEMPERATURE = "[temperature]"
+PRESSURE = "[mass] / [length] / [time] ** 2"
+RATE = "1 / [time]"
+ACCEL = "[length] / [time] ** 2"
+RATIO = "dimensionless"
+
+_DIM_WORDS = {
+    LENGTH: "a length", AREA: "an area", VOLUME: "a volume", SPEED: "a speed", TIME: "a time",
+    TEMPERATURE: "a temperature", PRESSURE: "a pressure", RATE: "a rotation rate or frequency",
+    ACCEL: "an acceleration", RATIO: "a dimensionless number",
+}
+_DIM_EXAMPLES = {
+    LENGTH: "'3.2 m' or '10 ft'", AREA: "'12 m^2'", VOLUME: "'2100 m^3'",
+    SPEED: "'2.5 m/s' or '18 kn'", TIME: "'10 min' or '3 h'", TEMPERATURE: "'15 degC'",
+    PRESSURE: "'101325 Pa' or '2 bar'", RATE: "'12 Hz' or '600 rpm'", ACCEL: "'0.5 m/s^2'",
+    RATIO: "'0.035' or '35 g/kg'",
+}
+
+#: Plausibility limits [SI] beyond which a value is taken for a typing slip (common practice;
+#: generous on purpose: they catch "18000 kn", not unusual designs).
+_LIMITS = {
+    "prototype_length": (1e-3, 2000.0),       # m: a 1 mm insect wing to a 2 km structure
+    "speed": (0.0, 700.0),                     # m/s: about Mach 2 in air
+    "pressure": (1.0, 1e8),                    # Pa
+    "rotation": (0.0, 2000.0),                 # 1/s
+    "scale": (0.01, 1000.0),                   # lambda
+    "facility_size": (0.05, 5000.0),           # m
+    "acceleration": (1e-3, 50.0),              # m/s^2
+    "model_length": (1e-3, 100.0),             # m
+    "wave_period": (0.05, 60.0),               # s
+    "wave_height": (1e-4, 40.0),               # m
+    "wave_length_ratio": (0.02, 50.0),         # -
+    "froude": (0.0, 10.0),                     # -
+    "heading": (-360.0, 360.0),                # deg
+    "duration": (1.0, 7 * 86400.0),            # s
+    "waiting": (0.0, 86400.0),                 # s
+    "current": (-10.0, 10.0),                  # m/s
+    "draught": (1e-3, 100.0),                  # m
+    "trim": (-50.0, 50.0),                     # m
+    "displacement": (1e-9, 1e7),               # m^3
+    "temperature": (1.0, 2000.0),              # K; the fluid's own range is checked after
+}
+
+#: Further prototype sizes [prototype.sizes] and their dimension.
+SIZE_KEYS: dict[str, str] = {
+    "beam": LENGTH, "draught": LENGTH, "span": LENGTH, "diameter": LENGTH, "height": LENGTH,
+    "width": LENGTH, "thickness": LENGTH, "blade_chord": LENGTH, "hub_diameter": LENGTH,
+    "wetted_surface": AREA, "midship_area": AREA, "frontal_area": AREA, "lateral_area": AREA,
+    "transverse_area": AREA, "bilge_keel_area": AREA, "waterplane_area": AREA,
+    "disk_area": AREA, "displacement": VOLUME, "volume": VOLUME,
+}
+
+ABOUT_KEYS = ("title", "project", "client", "author", "date", "note")
+FLUID_KEYS = ("name", "temperature", "pressure", "salinity", "humidity", "mass_fraction")
+PROTOTYPE_KEYS = ("kind", "name", "length", "speeds", "rotation_rates", "water_depth",
+                  "immersion", "air_pressure", "sizes", "fluid")
+FACILITY_KEYS = ("file", "kind", "name", "length", "width", "depth", "height", "speed_limits",
+                 "fluids", "temperature_limits", "pressure_limits", "acceleration", "braking",
+                 "open_jet", "wave_periods", "highest_wave", "fastest_rotation",
+                 "shortest_model", "longest_model", "shortest_steady_time")
+MATCHING_KEYS = ("exact", "report", "scale", "model_length", "choose", "friction_line",
+                 "form_factor", "model_fluid", "round_scale")
+RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_between_runs",
+             "loading", "waves")
+LOADING_KEYS = ("name", "draught", "trim", "displacement")
+WAVE_KEYS = ("name", "kind", "period", "length_ratio", "height", "steepness",
+             "significant_height", "peak_period", "spectrum", "gamma", "duration")
+TOP_KEYS = ("about", "prototype", "facility", "matching", "runs")
+SPEED_BASES = ("prototype", "froude", "model")
+WAVE_KINDS = ("regular", "irregular")
+SPECTRA = ("jonswap", "ittc")
+
+#: Every key of a case file by table, for documentation and "did you mean" hints.
+CASE_KEYS: dict[str, tuple[str, ...]] = {
+    "": TOP_KEYS, "about": ABOUT_KEYS, "prototype": PROTOTYPE_KEYS,
+    "prototype.sizes": tuple(SIZE_KEYS), "prototype.fluid": FLUID_KEYS,
+    "facility": FACILITY_KEYS, "matching": MATCHING_KEYS, "matching.model_fluid": FLUID_KEYS,
+    "runs": RUNS_KEYS, "runs.loading": LOADING_KEYS, "runs.waves": WAVE_KEYS,
+}
+
+_MISSING = object()
+
+
+def _show(value: Any) -> str:
+    """A value as written in a message, shortened."""
+    text = repr(value)
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
+def _show_path(path: str) -> str:
+    """A path as written in a message; a long one keeps its end (the file name)."""
+    text = repr(path)
+    return text if len(text) <= 80 else "'..." + text[-76:]
+
+
+def _join(path: str, key: str | int) -> str:
+    if isinstance(key, int):
+        return f"{path}[{key}]"
+    return f"{path}.{key}" if path else key
+
+
+class _Reader:
+    """Collects problems while reading; never raises until :meth:`finish`."""
+
+    def __init__(self, where: str = "") -> None:
+        self.problems: list[str] = []
+        self.where = where  # prefix naming the file, for facility files
+
+    # -- bookkeeping --------------------------------------------------------------------
+    def problem(self, path: str, text: str) -> None:
+        prefix = f"{self.where}: " if self.where else ""
+        self.problems.append(f"{prefix}{path}: {text}")
+
+    def finish(self) -> None:
+        if self.problems:
+            raise InputError(self.problems)
+
+    # -- tables -------------------------------------------------------------------------
+    def table(self, data: Any, path: str, allowed: tuple[str, ...],
+              required: tuple[str, ...] = ()) -> dict:
+        """Check a table: its type, unknown keys (with a hint) and required keys."""
+        if not isinstance(data, Mapping):
+            self.problem(path, f"{_show(data)} is not a table; expected a TOML table "
+                         f"[{path}] with keys " + ", ".join(allowed))
+            return {}
+        for key in data:
+            if key not in allowed:
+                close = difflib.get_close_matches(str(key), allowed, n=1, cutoff=0.6)
+                hint = f"; did you mean {close[0]!r}?" if close else ""
+                if path and key in TOP_KEYS:
+                    # TOML puts a key written after [table] into that table.
+                    hint = (f"; a top-level {key!r} must come before the first [table] of "
+                            "the file (TOML reads it as part of the table above it)")
+                self.problem(_join(path, key), "unknown key" + hint
+                             + ("" if hint else "; expected one of " + ", ".join(allowed)))
+        for key in required:
+            if key not in data:
+                self.problem(_join(path, key), "missing; this key is required")
+        return {k: v for k, v in data.items() if k in allowed}
+
+    def tables(self, data: Any, path: str) -> list:
+        """An array of tables ([[path]]) or a single table."""
+        if isinstance(data, Mapping):
+            return [data]
+        if isinstance(data, list):
+            return data
+        self.problem(path, f"{_show(data)} is not valid; expected [[{path}]] tables")
+        return []
+
+    # -- scalars ------------------------------------------------------------------------
+    def text(self, data: Mapping, key: str, path: str, default: Any = None) -> Any:
+        value = data.get(key, _MISSING)
+        if value is _MISSING:
+            return default
+        if isinstance(value, (_dt.date, _dt.datetime, _dt.time)):
+            return value.isoformat()
+        if not isinstance(value, str):
+            self.problem(_join(path, key), f"{_show(value)} is not text; expected a string")
+            return default
+        return value
+
+    def choice(self, data: Mapping, key: str, path: str, allowed: tuple[str, ...],
+               default: Any = None, required: bool = False) -> Any:
+        value = data.get(key, _MISSING)
+        if value is _MISSING:
+            if required:
+                self.problem(_join(path, key), "missing; expected one of " + ", ".join(allowed))
+            return default
+        return self.choose(value, _join(path, key), allowed, default)
+
+    def choose(self, value: Any, path: str, allowed: tuple[str, ...], default: Any = None):
+        if isinstance(value, str):
+            key = value.strip().lower().replace("-", "_").replace(" ", "_")
+            if key in allowed:
+                return key
+            close = difflib.get_close_matches(key, allowed, n=1, cutoff=0.6)
+            hint = f" (did you mean {close[0]!r}?)" if close else ""
+        else:
+            hint = ""
+        self.problem(path, f"{_show(value)} is not allowed{hint}; expected one of "
+                     + ", ".join(allowed))
+        return default
+
+    def flag(self, data: Mapping, key: str, path: str, default: bool = False) -> bool:
+        value = data.get(key, _MISSING)
+        if value is _MISSING:
+            return default
+        if not isinstance(value, bool):
+            self.problem(_join(path, key), f"{_show(value)} is not valid; expected true or false")
+            return default
+        return value
+
+    def integer(self, data: Mapping, key: str, path: str, low: int, high: int,
+                default: int) -> int:
+        value = data.get(key, _MISSING)
+        if value is _MISSING:
+            return default
+        if isinstance(value, bool) or not isinstance(value, int) or not low <= value <= high:
+            self.problem(_join(path, key), f"{_show(value)} is not valid; expected a whole "
+                         f"number from {low} to {high}")
+            return default
+        return value
+
+    def quantity(self, value: Any, path: str, dim: str, limits: tuple[float, float],
+                 strict_low: bool = True, bare_unit: str | None = None) -> float | None:
+        """One quantity string → SI float, or None after recording the problem.
+
+        ``bare_unit``: the unit a bare number is read in (dimensionless inputs and angles);
+        otherwise a bare number is refused for a dimensional quantity.
+        """
+        what = _DIM_WORDS.get(dim, dim)
+        if isinstance(value, bool) or not isinstance(value, (str, int, float)):
+            self.problem(path, f"{_show(value)} is not valid; expected {what} as a string "
+                         f"with a unit, e.g. {_DIM_EXAMPLES.get(dim, '')}")
+            return None
+        if isinstance(value, (int, float)) and dim != RATIO and bare_unit is None:
+            self.problem(path, f"{_show(value)} has no unit; expected {what} as a string "
+                         f"with a unit, e.g. {_DIM_EXAMPLES.get(dim, '')}")
+            return None
+        try:
+            if bare_unit is not None:
+                # Angles: a bare number is read in bare_unit, a string may carry its unit.
+                q = parse_quantity(value, path)
+                if not q.dimensionless:
+                    raise UnitInputError(f"{path}: {value!r} is not an angle; expected "
+                                         f"a number of degrees or a string such as '180 deg'")
+                plain = str(q.units) in ("dimensionless", "")
+                si = float(q.magnitude) if plain else float(q.to(bare_unit).magnitude)
+            else:
+                # n of J = V/(nD) counts revolutions (pint counts rpm in radians).
+                si = to_rotation_rate(value, path) if dim == RATE else to_si(value, dim, path)
+        except BAD_INPUT_ERRORS as exc:
+            text = str(exc)
+            prefix = f"{path}: "
+            self.problem(path, text[len(prefix):] if text.startswith(prefix) else text)
+            return None
+        except Exception as exc:  # pint can fail in many ways on odd strings
+            self.problem(path, f"cannot read {_show(value)} ({exc.__class__.__name__}); "
+                         f"expected {what}, e.g. {_DIM_EXAMPLES.get(dim, '')}")
+            return None
+        if not isinstance(si, float):
+            self.problem(path, f"{_show(value)} is not one value; expected a single {what}")
+            return None
+        low, high = limits
+        too_low = si <= low if strict_low else si < low
+        if not math.isfinite(si) or too_low or si > high:
+            shown = _si_text(si, dim, bare_unit)
+            rel = ">" if strict_low else ">="
+            self.problem(path, f"{_show(value)} ({shown}) is out of range; expected {what} "
+                         f"{rel} {_si_text(low, dim, bare_unit)} and <= "
+                         f"{_si_text(high, dim, bare_unit)}")
+            return None
+        return si
+
+    def field(self, data: Mapping, key: str, path: str, dim: str, limits: tuple[float, float],
+              required: bool = False, **kw) -> float | None:
+        value = data.get(key, _MISSING)
+        if value is _MISSING:
+            if required:
+                self.problem(_join(path, key), f"missing; expected {_DIM_WORDS.get(dim, dim)}, "
+                             f"e.g. {_DIM_EXAMPLES.get(dim, '')}")
+            return None
+        return self.quantity(value, _join(path, key), dim, limits, **kw)
+
+    def quantities(self, data: Mapping, key: str, path: str, dim: str,
+                   limits: tuple[float, float], required: bool = False,
+                   **kw) -> tuple[float, ...] | None:
+        """A list of quantities (a single value reads as a list of one)."""
+        value = data.get(key, _MISSING)
+        p = _join(path, key)
+        if value is _MISSING:
+            if required:
+                self.problem(p, f"missing; expected a list of {_DIM_WORDS.get(dim, dim)} "
+                             f"values, e.g. [{_DIM_EXAMPLES.get(dim, '')}]")
+            return None
+        if not isinstance(value, list):
+            value = [value]
+            single = True
+        else:
+            single = False
+        if not value:
+            self.problem(p, "empty list; expected at least one value")
+            return None
+        out = []
+        ok = True
+        for i, item in enumerate(value):
+            si = self.quantity(item, p if single else _join(p, i), dim, limits, **kw)
+            ok = ok and si is not None
+            out.append(si)
+        return tuple(out) if ok else None
+
+    def limits(self, data: Mapping, key: str, path: str, dim: str,
+               limits: tuple[float, float], required: bool = False) -> tuple | None:
+        """A [low, high] pair of quantities."""
+        value = data.get(key, _MISSING)
+        p = _join(path, key)
+        if value is _MISSING:
+            if required:
+                self.problem(p, f"missing; expected [lowest, highest] as two "
+                             f"{_DIM_WORDS.get(dim, dim)} values")
+            return None
+        if not isinstance(value, list) or len(value) != 2:
+            self.problem(p, f"{_show(value)} is not valid; expected [lowest, highest], two "
+                         f"values such as [{_DIM_EXAMPLES.get(dim, '')}]")
+            return None
+        lo = self.quantity(value[0], _join(p, 0), dim, limits, strict_low=False)
+        hi = self.quantity(value[1], _join(p, 1), dim, limits, strict_low=False)
+        if lo is None or hi is None:
+            return None
+        if not (lo <= hi and hi > 0):
+            self.problem(p, f"{_show(value)} is not valid; expected lowest <= highest")
+            return None
+        return (lo, hi)
+
+
+def _si_text(si: float, dim: str, unit: str | None = None) -> str:
+    if unit is not None:
+        return f"{si:g} {unit}"
+    if dim == TEMPERATURE:
+        return f"{si:g} K"
+    sym = {LENGTH: "m", AREA: "m^2", VOLUME: "m^3", SPEED: "m/s", TIME: "s", PRESSURE: "Pa",
+           RATE: "1/s", ACCEL: "m/s^2", RATIO: ""}.get(dim, "")
+    return f"{si:g} {sym}".strip()
+
+
+# -- fluids ---------------------------------------------------------------------------------
+
+def _fluid_names() -> tuple[str, ...]:
+    from fluids_props import list_fluids
+
+    return tuple(info.name for info in list_fluids())
+
+
+def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
+    from fluids_props import get_fluid
+
+    t = r.table(data, path, FLUID_KEYS, required=("name", "temperature"))
+    if not t and not isinstance(data, Mapping):
+        return None
+    name = None
+    info = None
+    raw = t.get("name", _MISSING)
+    if raw is not _MISSING:
+        if isinstance(raw, str):
+            try:
+                info = get_fluid(raw)
+                name = info.name
+            except ValueError:
+                r.choose(raw, _join(path, "name"), _fluid_names())
+        else:
+            r.choose(raw, _join(path, "name"), _fluid_names())
+    temp = r.field(t, "temperature", path, TEMPERATURE, _LIMITS["temperature"])
+    pressure = r.field(t, "pressure", path, PRESSURE, _LIMITS["pressure"])
+    salinity = r.field(t, "salinity", path, RATIO, (0.0, 0.2), strict_low=False)
+    humidity = r.field(t, "humidity", path, RATIO, (0.0, 1.0), strict_low=False)
+    fraction = r.field(t, "mass_fraction", path, RATIO, (0.0, 1.0), strict_low=False)
+    if info is not None:
+        for key, value in (("temperature", temp), ("salinity", salinity),
+                           ("pressure", pressure)):
+            rng = info.range_of(key)
+            if value is None or rng is None:
+                continue
+            if not rng.low <= value <= rng.high:
+                r.problem(_join(path, key), f"{_show(t[key])} is outside the validity range "
+                          f"of {info.name}: {rng.text()}")
+        if salinity is not None and info.range_of("salinity") is None:
+            r.problem(_join(path, "salinity"), f"given, but {info.name} has no salinity; "
+                      "expected it only for sea_water")
+        if fraction is not None and info.range_of("mass_fraction") is None:
+            r.problem(_join(path, "mass_fraction"), f"given, but {info.name} is not a mixture; "
+                      "expected it only for glycerol_water")
+        if humidity is not None and info.kind != "gas":
+            r.problem(_join(path, "humidity"), f"given, but {info.name} is not a gas; "
+                      "expected it only for air")
+    if name is None or temp is None:
+        return None
+    try:
+        return FluidSpec(name=name, temperature=temp, pressure=pressure, salinity=salinity,
+                         relative_humidity=humidity or 0.0, mass_fraction=fraction)
+    except InputError as exc:
+        for line in exc.problems:
+            r.problems.append(f"{path}: {line}")
+        return None
+
+
+# -- tables of the case ---------------------------------------------------------------------
+
+def _read_prototype(r: _Reader, data: Any) -> Prototype | None:
+    path = "prototype"
+    t = r.table(data, path, PROTOTYPE_KEYS, required=("kind", "length", "speeds", "fluid"))
+    kind = r.choice(t, "kind", path, PROTOTYPE_KINDS)
+    name = r.text(t, "name", path, "prototype")
+    length = r.field(t, "length", path, LENGTH, _LIMITS["prototype_length"])
+    speeds = r.quantities(t, "speeds", path, SPEED, _LIMITS["speed"])
+    rates = r.quantities(t, "rotation_rates", path, RATE, _LIMITS["rotation"])
+    depth = r.field(t, "water_depth", path, LENGTH, (0.0, 12000.0))
+    immersion = r.field(t, "immersion", path, LENGTH, (0.0, 12000.0), strict_low=False)
+    air_p = r.field(t, "air_pressure", path, PRESSURE, _LIMITS["pressure"])
+    sizes = {}
+    if "sizes" in t:
+        st = r.table(t["sizes"], "prototype.sizes", tuple(SIZE_KEYS))
+        for key in st:
+            lim = {LENGTH: (0.0, 5000.0), AREA: (0.0, 1e7), VOLUME: (0.0, 1e8)}[SIZE_KEYS[key]]
+            v = r.field(st, key, "prototype.sizes", SIZE_KEYS[key], lim)
+            if v is not None:
+                sizes[key] = v
+    fluid = _read_fluid(r, t["fluid"], "prototype.fluid") if "fluid" in t else None
+    if rates is not None and speeds is not None and len(rates) != len(speeds):
+        r.problem("prototype.rotation_rates", f"{len(rates)} values for {len(speeds)} speeds; "
+                  "expected one rotation rate per speed")
+    if kind == "propeller" and rates is None and "rotation_rates" not in t:
+        r.problem("prototype.rotation_rates", "missing; expected one rotation rate per speed "
+                  "for a propeller, e.g. ['120 rpm']")
+    if None in (kind, length, speeds, fluid):
+        return None
+    try:
+        return Prototype(kind=kind, length=length, speeds=speeds, fluid=fluid, name=name,
+                         dimensions=sizes, rotation_rates=rates or (), water_depth=depth,
+                         immersion=immersion, ambient_pressure=air_p or 101325.0)
+    except InputError as exc:
+        r.problems.extend(exc.problems)
+        return None
+
+
+def _read_facility_table(r: _Reader, data: Any, path: str = "facility") -> Facility | None:
+    keys = tuple(k for k in FACILITY_KEYS if k != "file")
+    t = r.table(data, path, keys, required=("kind", "length", "width", "speed_limits"))
+    kind = r.choice(t, "kind", path, FACILITY_KINDS)
+    name = r.text(t, "name", path, "facility")
+    size = _LIMITS["facility_size"]
+    length = r.field(t, "length", path, LENGTH, size)
+    width = r.field(t, "width", path, LENGTH, size)
+    if "depth" in t and "height" in t:
+        r.problem(_join(path, "height"), "given with depth; expected one of them (depth for "
+                  "tanks and basins, height for a tunnel test section)")
+    depth_key = "height" if "height" in t else "depth"
+    depth = r.field(t, depth_key, path, LENGTH, size)
+    if depth is None and "depth" not in t and "height" not in t:
+        r.problem(_join(path, "depth"), "missing; expected the water depth of a tank or basin "
+                  "(depth) or the test-section height of a tunnel (height), e.g. '3.5 m'")
+    speeds = r.limits(t, "speed_limits", path, SPEED, _LIMITS["speed"])
+    fluids = None
+    if "fluids" in t:
+        raw = t["fluids"] if isinstance(t["fluids"], list) else [t["fluids"]]
+        fluids = []
+        names = _fluid_names()
+        from fluids_props import get_fluid
+
+        for i, item in enumerate(raw):
+            p = _join(_join(path, "fluids"), i)
+            try:
+                if not isinstance(item, str):
+                    raise ValueError
+                fluids.append(get_fluid(item).name)
+            except ValueError:
+                r.choose(item, p, names)
+        if not raw:
+            r.problem(_join(path, "fluids"), "empty list; expected at least one fluid name")
+    temps = r.limits(t, "temperature_limits", path, TEMPERATURE, _LIMITS["temperature"])
+    pressures = r.limits(t, "pressure_limits", path, PRESSURE, _LIMITS["pressure"])
+    accel = r.field(t, "acceleration", path, ACCEL, _LIMITS["acceleration"])
+    braking = r.field(t, "braking", path, ACCEL, _LIMITS["acceleration"])
+    open_jet = r.flag(t, "open_jet", path)
+    periods = r.limits(t, "wave_periods", path, TIME, _LIMITS["wave_period"])
+    highest = r.field(t, "highest_wave", path, LENGTH, _LIMITS["wave_height"])
+    fastest = r.field(t, "fastest_rotation", path, RATE, _LIMITS["rotation"])
+    shortest = r.field(t, "shortest_model", path, LENGTH, _LIMITS["model_length"])
+    longest = r.field(t, "longest_model", path, LENGTH, _LIMITS["model_length"])
+    steady = r.field(t, "shortest_steady_time", path, TIME, (0.0, 3600.0))
+    if shortest is not None and longest is not None and shortest > longest:
+        r.problem(_join(path, "shortest_model"), "longer than longest_model; expected "
+                  "shortest_model <= longest_model")
+    if kind in ("towing_tank", "wave_basin") and open_jet:
+        r.problem(_join(path, "open_jet"), f"true for a {kind}; expected it only for a "
+                  "wind_tunnel")
+    if None in (kind, length, width, depth, speeds):
+        return None
+    kw: dict[str, Any] = {}
+    if fluids:
+        kw["fluids"] = tuple(fluids)
+    if temps is not None:
+        kw["temperature_range"] = temps
+    try:
+        return Facility(kind=kind, name=name, length=length, width=width, depth=depth,
+                        speed_range=speeds, pressure_range=pressures, acceleration=accel,
+                        deceleration=braking, open_jet=open_jet,
+                        wavemaker_period_range=periods, wavemaker_max_height=highest,
+                        max_rotation_rate=fastest, min_model_length=shortest,
+                        max_model_length=longest, min_steady_time=steady, **kw)
+    except InputError as exc:
+        r.problems.extend(exc.problems)
+        return None
+
+
+def _read_matching(r: _Reader, data: Any) -> MatchRequest | None:
+    path = "matching"
+    t = r.table(data, path, MATCHING_KEYS)
+    kw: dict[str, Any] = {}
+    for key in ("exact", "report"):
+        if key not in t:
+            continue
+        raw = t[key] if isinstance(t[key], list) else [t[key]]
+        names = []
+        for i, item in enumerate(raw):
+            g = r.choose(item, _join(_join(path, key), i), MATCHABLE_GROUPS)
+            if g is not None:
+                names.append(g)
+        if len(names) == len(raw):
+            kw[key] = tuple(names)
+    if "exact" in kw and len(set(kw["exact"])) != len(kw["exact"]):
+        r.problem("matching.exact", f"{list(kw['exact'])!r} names a group twice; expected "
+                  "each group once")
+        kw.pop("exact")
+    if "scale" in t:
+        try:
+            lam = parse_scale(t["scale"], "matching.scale") if not isinstance(
+                t["scale"], bool) else float("nan")
+        except (UnitInputError, TypeError, ValueError, OverflowError):
+            lam = float("nan")
+        lo, hi = _LIMITS["scale"]
+        if not (math.isfinite(lam) and lo <= lam <= hi):
+            r.problem("matching.scale", f"{_show(t['scale'])} is not valid; expected a scale "
+                      f"such as '1:25' (prototype/model from {lo:g} to {hi:g})")
+        else:
+            kw["scale"] = lam
+    ml = r.field(t, "model_length", path, LENGTH, _LIMITS["model_length"])
+    if ml is not None:
+        kw["model_length"] = ml
+    if "scale" in t and "model_length" in t:
+        r.problem("matching.model_length", "given with scale; expected one of them")
+        kw.pop("model_length", None)
+    obj = r.choice(t, "choose", path, OBJECTIVES)
+    if obj is not None:
+        kw["objective"] = obj
+    from similitude.correlations.friction import FRICTION_LINES
+
+    line = r.choice(t, "friction_line", path, tuple(FRICTION_LINES))
+    if line is not None:
+        kw["friction_line"] = line
+    # k of the 1978 ITTC method: the range 0 <= k < 2 is the one Case itself accepts.
+    k = r.field(t, "form_factor", path, RATIO, (0.0, 2.0), strict_low=False)
+    if k is not None:
+        kw["form_factor"] = k
+    if "round_scale" in t:
+        kw["round_scale"] = r.flag(t, "round_scale", path, True)
+    if "model_fluid" in t:
+        mf = _read_fluid(r, t["model_fluid"], "matching.model_fluid")
+        if mf is None:
+            return None
+        kw["model_fluid"] = mf
+    try:
+        return MatchRequest(**kw)
+    except InputError as exc:
+        r.problems.extend(exc.problems)
+        return None
+
+
+def _read_loading(r: _Reader, data: Any, path: str) -> LoadingCondition | None:
+    t = r.table(data, path, LOADING_KEYS, required=("name",))
+    name = r.text(t, "name", path)
+    draught = r.field(t, "draught", path, LENGTH, _LIMITS["draught"])
+    trim = r.field(t, "trim", path, LENGTH, _LIMITS["trim"], strict_low=False)
+    disp = r.field(t, "displacement", path, VOLUME, _LIMITS["displacement"])
+    if name is None:
+        return None
+    return LoadingCondition(name=name, draught=draught, trim=trim or 0.0, displacement=disp)
+
+
+def _read_wave(r: _Reader, data: Any, path: str) -> WaveCondition | None:
+    t = r.table(data, path, WAVE_KEYS, required=("kind",))
+    kind = r.choice(t, "kind", path, WAVE_KINDS)
+    name = r.text(t, "name", path, "")
+    q = {
+        "period": r.field(t, "period", path, TIME, _LIMITS["wave_period"]),
+        "length_ratio": r.field(t, "length_ratio", path, RATIO, _LIMITS["wave_length_ratio"]),
+        "height": r.field(t, "height", path, LENGTH, _LIMITS["wave_height"]),
+        # 1/7: the limiting steepness of a deep-water wave (Michell 1893).
+        "steepness": r.field(t, "steepness", path, RATIO, (0.0, 1 / 7)),
+        "significant_height": r.field(t, "significant_height", path, LENGTH,
+                                      _LIMITS["wave_height"]),
+        "peak_period": r.field(t, "peak_period", path, TIME, _LIMITS["wave_period"]),
+        "duration": r.field(t, "duration", path, TIME, _LIMITS["duration"]),
+    }
+    spectrum = r.choice(t, "spectrum", path, SPECTRA, "jonswap")
+    # gamma 1 to 7: range of the JONSWAP peak factor in DNV-RP-C205 (2010) section 3.5.5.
+    gamma = r.field(t, "gamma", path, RATIO, (1.0, 7.0), strict_low=False)
+    if kind == "regular":
+        for a, b in (("period", "length_ratio"), ("height", "steepness")):
+            if (a in t) == (b in t):
+                given = f"both {a} and {b}" if a in t else f"neither {a} nor {b}"
+                r.problem(_join(path, a), f"{given} given; expected exactly one of them for a "
+                          "regular wave")
+        for key in ("significant_height", "peak_period", "spectrum", "gamma", "duration"):
+            if key in t:
+                r.problem(_join(path, key), "given for a regular wave; expected it only for "
+                          "kind = 'irregular'")
+    elif kind == "irregular":
+        for key in ("significant_height", "peak_period"):
+            if key not in t:
+                r.problem(_join(path, key), "missing; expected it for an irregular sea")
+        for key in ("period", "length_ratio", "height", "steepness"):
+            if key in t:
+                r.problem(_join(path, key), "given for an irregular sea; expected it only for "
+                          "kind = 'regular'")
+        if "gamma" in t and spectrum != "jonswap":
+            r.problem(_join(path, "gamma"), "given for the ittc spectrum; expected it only for "
+                      "spectrum = 'jonswap'")
+    if kind is None:
+        return None
+    return WaveCondition(kind=kind, spectrum=spectrum or "jonswap",
+                         gamma=3.3 if gamma is None else gamma, name=name or "", **q)
+
+
+def _read_runs(r: _Reader, data: Any) -> MatrixSpec | None:
+    path = "runs"
+    t = r.table(data, path, RUNS_KEYS)
+    basis = r.choice(t, "speeds_as", path, SPEED_BASES, "prototype")
+    kw: dict[str, Any] = {"speed_basis": basis or "prototype"}
+    if basis == "froude":
+        speeds = r.quantities(t, "speeds", path, RATIO, _LIMITS["froude"])
+    else:
+        speeds = r.quantities(t, "speeds", path, SPEED, _LIMITS["speed"])
+    if speeds is not None:
+        kw["speeds"] = speeds
+    kw["repeats"] = r.integer(t, "repeats", path, 1, 100, 1)
+    headings = r.quantities(t, "headings", path, RATIO, _LIMITS["heading"], strict_low=False,
+                            bare_unit="degree")
+    if headings is not None:
+        kw["headings"] = headings
+    current = r.field(t, "current", path, SPEED, _LIMITS["current"], strict_low=False)
+    if current is not None:
+        kw["current"] = current
+    wait = r.field(t, "wait_between_runs", path, TIME, _LIMITS["waiting"], strict_low=False)
+    if wait is not None:
+        kw["waiting_time"] = wait
+    ok = True
+    for key, reader in (("loading", _read_loading), ("waves", _read_wave)):
+        if key not in t:
+            continue
+        items = []
+        tables = r.tables(t[key], _join(path, key))
+        for i, item in enumerate(tables):
+            got = reader(r, item, f"{path}.{key}[{i}]")
+            ok = ok and got is not None
+            items.append(got)
+        if not tables:
+            ok = False
+        kw[key] = tuple(items)
+    names = [c.name for c in kw.get("loading", ()) if c is not None]
+    if len(set(names)) != len(names):
+        r.problem("runs.loading", f"names {names!r} repeat; expected each loading condition "
+                  "to have its own name")
+    if not ok:
+        return None
+    return MatrixSpec(**kw)
+
+
+def _read_about(r: _Reader, data: Any) -> dict:
+    t = r.table(data, "about", ABOUT_KEYS)
+    return {k: v for k in ABOUT_KEYS if (v := r.text(t, k, "about")) is not None}
+
+
+# -- public ---------------------------------------------------------------------------------
+
+def parse_facility(mapping: Any, where: str = "") -> Facility:
+    """Read a facility table (the keys of ``[facility]``) into a :class:`Facility` (SI).
+
+    Parameters
+    ----------
+    mapping : mapping
+        The table as read by :mod:`tomllib`.
+    where : str
+        Prefix of every message (the facility file), or "".
+
+    Raises
+    ------
+    InputError
+        With one line per problem.
+    """
+    r = _Reader(where)
+    fac = _read_facility_table(r, mapping)
+    r.finish()
+    return fac
+
+
+def parse_case(mapping: Any, base_dir: str | Path = ".", name: str = "case") -> Case:
+    """Read a case mapping (a parsed TOML document) into a :class:`Case` (SI).
+
+    Parameters
+    ----------
+    mapping : mapping
+        The document as read by :func:`tomllib.loads`.
+    base_dir : str or Path
+        Folder against which a facility path (``facility = "facilities/tank.toml"``) is read.
+    name : str
+        Case name used when ``[about] title`` is absent.
+
+    Returns
+    -------
+    Case
+
+    Raises
+    ------
+    InputError
+        With every problem found, one line each: key path, value, what was expected.
+    """
+    r = _Reader()
+    if not isinstance(mapping, Mapping):
+        raise InputError(f"case: {_show(mapping)} is not a table; expected a TOML document")
+    doc = r.table(mapping, "", TOP_KEYS, required=("prototype", "facility"))
+    about = _read_about(r, doc["about"]) if "about" in doc else {}
+    proto = _read_prototype(r, doc["prototype"]) if "prototype" in doc else None
+    facility = None
+    if "facility" in doc:
+        raw = doc["facility"]
+        if isinstance(raw, str):
+            facility = _facility_from_file(r, raw, Path(base_dir))
+        elif isinstance(raw, Mapping) and "file" in raw:
+            extra = [k for k in raw if k != "file"]
+            if extra:
+                r.problem("facility", f"keys {extra!r} given with file; expected either "
+                          "file = 'path' alone or the facility keys inline")
+            if isinstance(raw["file"], str):
+                facility = _facility_from_file(r, raw["file"], Path(base_dir))
+            else:
+                r.problem("facility.file", f"{_show(raw['file'])} is not valid; expected "
+                          "a path such as 'facilities/tank.toml'")
+        else:
+            facility = _read_facility_table(r, raw)
+    request = _read_matching(r, doc["matching"]) if "matching" in doc else MatchRequest()
+    matrix = _read_runs(r, doc["runs"]) if "runs" in doc else MatrixSpec()
+    if matrix is not None and proto is not None and facility is not None:
+        _cross_checks(r, proto, facility, request, matrix)
+    r.finish()
+    return Case(prototype=proto, facility=facility, request=request, matrix=matrix,
+                metadata=about, name=about.get("title", name))
+
+
+def _cross_checks(r: _Reader, proto: Prototype, facility: Facility,
+                  request: MatchRequest | None, matrix: MatrixSpec) -> None:
+    """Problems that span tables."""
+    if matrix.waves and not facility.kind == "wave_basin" and facility.kind != "towing_tank":
+        r.problem("runs.waves", f"waves given but the facility is a {facility.kind}; expected "
+                  "a towing_tank or wave_basin")
+    if request is not None and request.model_fluid is not None:
+        if request.model_fluid.name not in facility.fluids:
+            r.problem("matching.model_fluid.name", f"{request.model_fluid.name!r} is not a "
+                      "fluid of the facility; expected one of " + ", ".join(facility.fluids))
+
+
+def _facility_from_file(r: _Reader, rel: str, base_dir: Path) -> Facility | None:
+    if not rel.strip():
+        r.problem("facility", "empty path; expected a facility file such as "
+                  "'facilities/tank.toml' or a [facility] table")
+        return None
+    path = (base_dir / rel) if not Path(rel).is_absolute() else Path(rel)
+    try:
+        doc = _read_toml(path, "facility")
+    except InputError as exc:
+        r.problems.extend(exc.problems)
+        return None
+    sub = _Reader(where=f"facility file {_show_path(rel)}")
+    fac = _read_facility_table(sub, doc, "facility")
+    r.problems.extend(sub.problems)
+    return fac
+
+
+def _read_toml(path: Path, what: str) -> dict:
+    """Read a TOML file; every failure becomes an InputError line."""
+    label = f"{what} file {_show_path(str(path))}"
+    try:
+        data = path.read_bytes()
+    except FileNotFoundError:
+        raise InputError(f"{label}: not found; expected an existing TOML file") from None
+    except IsADirectoryError:
+        raise InputError(f"{label}: is a folder; expected a TOML file") from None
+    except OSError as exc:
+        raise InputError(f"{label}: cannot be read ({exc.strerror}); expected a readable "
+                         "TOML file") from None
+    except ValueError:  # e.g. a NUL character in the path
+        raise InputError(f"{label}: is not a usable path; expected a file name") from None
+    if not data.strip():
+        raise InputError(f"{label}: is empty; expected a TOML case with [prototype] and "
+                         "[facility] tables" if what == "case" else
+                         f"{label}: is empty; expected the keys of a facility")
+    if b"\x00" in data:
+        raise InputError(f"{label}: holds binary data; expected a UTF-8 TOML text file")
+    try:
+        text = data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(f"{label}: is not UTF-8 text (byte {exc.start}); expected a UTF-8 "
+                         "TOML text file") from None
+    try:
+        return tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        raise InputError(f"{label}: is not valid TOML ({exc}); expected TOML syntax such as "
+                         "length = \"78 m\"") from None
+    except RecursionError:
+        raise InputError(f"{label}: is nested too deeply; expected a flat TOML case") from None
+
+
+def load_facility(path: str | Path) -> Facility:
+    """Read a facility file (TOML, the keys of a ``[facility]`` table) into a Facility."""
+    p = Path(path)
+    doc = _read_toml(p, "facility")
+    return parse_facility(doc, where=f"facility file {str(p)!r}")
+
+
+def load_case(path: str | Path) -> Case:
+    """Read a TOML case file into a :class:`Case` (SI inside).
+
+    Parameters
+    ----------
+    path : str or Path
+        The case file. A facility path inside it is read relative to the case file's folder.
+
+    Returns
+    -------
+    Case
+
+    Raises
+    ------
+    InputError
+        For a missing, empty, binary or broken file, and for every problem in its content
+        (one line each: key path, value, what was expected).
+    """
+    p = Path(path)
+    doc = _read_toml(p, "case")
+    return parse_case(doc, base_dir=p.parent, name=p.stem)
+

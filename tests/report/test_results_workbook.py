@@ -1,0 +1,121 @@
+"""The results workbook of an extrapolation: the Prohaska fit report, each step, cautions and a
+write that is atomic (similitude.report.results_workbook)."""
+
+from __future__ import annotations
+
+import numpy as np
+import openpyxl
+import pytest
+
+from similitude.prediction.extrapolation import ShipParticulars, extrapolate
+from similitude.prediction.uncertainty import MeasurementUncertainty, propagate
+from similitude.readers.measured import ResistanceRuns
+from similitude.report import results_workbook
+
+G = 9.80665  # standard gravity, ISO 80000-3
+SHIP = ShipParticulars(length=100.0, wetted_surface=2500.0, scale=25.0, transverse_area=250.0)
+
+
+def _noisy_runs(k=0.17, noise=0.004, seed=7):
+    """An invented hull with C_TM = (1+k) C_F57 + 0.04 Fn^4 (Prohaska's model), with noise."""
+    from fluids_props.water import fresh_water_si
+
+    fn = np.linspace(0.08, 0.30, 16)
+    lm, sm = SHIP.model_length, SHIP.model_wetted_surface
+    v = fn * np.sqrt(G * lm)
+    s = fresh_water_si(np.full(fn.size, 288.15))
+    cf = 0.075 / (np.log10(v * lm / s.kinematic_viscosity_si) - 2) ** 2  # ITTC-1957 line
+    r = ((1 + k) * cf + 0.04 * fn**4) * 0.5 * s.density_si * sm * v**2
+    r = r * (1 + np.random.default_rng(seed).normal(0, noise, fn.size))
+    return ResistanceRuns(tuple(f"R{i}" for i in range(fn.size)), v, r,
+                          np.full(fn.size, 288.15), source="runs_SYNTHETIC.csv")
+
+
+@pytest.fixture(scope="module")
+def result():
+    return extrapolate(_noisy_runs(), SHIP, froude_range=(0.1, 0.2))
+
+
+def _texts(ws) -> str:
+    return " ".join(str(c.value) for row in ws.iter_rows() for c in row if c.value is not None)
+
+
+def test_prohaska_fit_report_matches_an_independent_least_squares_line(result):
+    # Oracle: scipy.stats.linregress on Prohaska's coordinates (C_TM/C_FM against Fn^4/C_FM,
+    # ITTC 7.5-02-03-01.4 Rev 04 2017) of the runs in the stated Froude range.
+    from scipy.stats import linregress
+
+    pro = result.prohaska_frame()
+    inside = pro["used in fit"].to_numpy()
+    fn = pro["Froude number [-]"].to_numpy()
+    np.testing.assert_array_equal(inside, (fn >= 0.1) & (fn <= 0.2))
+    x, y = pro["Fn^4/C_FM [-]"].to_numpy()[inside], pro["C_TM/C_FM [-]"].to_numpy()[inside]
+    ref = linregress(x, y)
+    fit = result.form_factor_fit
+    assert fit.form_factor == pytest.approx(ref.intercept - 1.0, rel=1e-9)
+    assert fit.slope == pytest.approx(ref.slope, rel=1e-9)
+    assert fit.r_squared == pytest.approx(ref.rvalue**2, rel=1e-9)
+    np.testing.assert_allclose(fit.residuals, y - (ref.intercept + ref.slope * x),
+                               rtol=0, atol=1e-12)
+    summary = result.fit_summary()
+    assert summary["Froude range [-]"] == "0.1 to 0.2"
+    assert summary["points used"] == int(inside.sum())
+    assert summary["largest |residual| [-]"] == pytest.approx(
+        np.max(np.abs(y - ref.intercept - ref.slope * x)), rel=1e-9)
+
+
+def test_form_factor_sheet_lists_the_fit_and_every_residual(result, tmp_path):
+    path = results_workbook.write_results(tmp_path / "r.xlsx", result)
+    ws = openpyxl.load_workbook(path)["Form factor"]
+    text = _texts(ws)
+    for label in ("R^2 [-]", "Froude range [-]", "points used", "largest |residual| [-]",
+                  "residual [-]", "used in fit"):
+        assert label in text
+    header = next(r for r in ws.iter_rows(values_only=True) if "residual [-]" in r)
+    col = header.index("residual [-]")
+    rows = [r for r in ws.iter_rows(values_only=True)
+            if isinstance(r[0], str) and r[0].startswith("R") and r[0][1:].isdigit()]
+    np.testing.assert_allclose([r[col] for r in rows],
+                               result.prohaska_frame()["residual [-]"], rtol=1e-12)
+    assert len(ws._charts) == 1  # the Prohaska plot
+
+
+def test_each_step_has_its_sheet_and_the_readme_carries_the_cautions(result, tmp_path):
+    u = propagate(result, MeasurementUncertainty.from_quantities("2 mm/s", "0.5 %", "0.1 K"))
+    wb = openpyxl.load_workbook(results_workbook.write_results(tmp_path / "r.xlsx", result, u))
+    assert wb.sheetnames[:8] == ["Read me", "Inputs", "Tank corrections", "Form factor",
+                                 "Model scale", "Full scale", "Results", "Uncertainty"]
+    readme = _texts(wb["Read me"])
+    assert "ESTIMATES" in readme and "licensed professional practice" in readme
+    assert "SYNTHETIC" in readme  # the source file is labelled synthetic
+    assert "first-order" in _texts(wb["Uncertainty"]).lower()
+    headers = [c.value for c in wb["Full scale"][1]]
+    for name in ("roughness allowance dC_F [-]", "correlation allowance C_A [-]",
+                 "air resistance C_AAS [-]", "C_TS [-]", "P_E [kW]"):
+        assert name in headers
+
+
+def test_interrupted_write_leaves_no_partial_file(result, tmp_path, monkeypatch):
+    def broken_save(self, filename):
+        with open(filename, "wb") as fh:
+            fh.write(b"PK\x03\x04 half a workbook")
+        raise KeyboardInterrupt
+
+    monkeypatch.setattr(openpyxl.Workbook, "save", broken_save)
+    with pytest.raises(KeyboardInterrupt):
+        results_workbook.write_results(tmp_path / "r.xlsx", result)
+    assert list(tmp_path.iterdir()) == []  # neither the target nor the temporary file
+
+
+def test_interrupted_overwrite_keeps_the_old_file(result, tmp_path, monkeypatch):
+    old = tmp_path / "r.xlsx"
+    old.write_bytes(b"the old results")
+
+    def broken_save(self, filename):
+        raise OSError("disk full")
+
+    monkeypatch.setattr(openpyxl.Workbook, "save", broken_save)
+    with pytest.raises(OSError, match="disk full"):
+        results_workbook.write_results(old, result, overwrite=True)
+    assert old.read_bytes() == b"the old results"
+    assert list(tmp_path.iterdir()) == [old]

@@ -30,6 +30,7 @@ __all__ = [
     "UnitInputError",
     "example_unit",
     "parse_quantity",
+    "format_scale",
     "parse_scale",
     "si_quantity",
     "to_si",
@@ -80,6 +81,33 @@ def parse_scale(value: Any, name: str = "scale") -> float:
     if not lam > 0:
         raise UnitInputError(f"{name}: {value!r} is not a valid scale; expected a number > 0")
     return lam
+
+
+def format_scale(scale: float, digits: int = 4) -> str:
+    """The scale lambda in the trade's notation, model first: the inverse of :func:`parse_scale`.
+
+    Parameters
+    ----------
+    scale : float
+        lambda = prototype length / model length (> 0).
+    digits : int
+        Significant digits of a scale that is not a whole number.
+
+    Returns
+    -------
+    str
+        ``25 -> "1:25"``, ``24.63 -> "1:24.63"``; a model larger than its prototype
+        (lambda < 1) the other way round: ``0.5 -> "2:1"``.
+    """
+    if scale < 1.0:
+        return f"{_ratio_number(1.0 / scale, digits)}:1"
+    return f"1:{_ratio_number(scale, digits)}"
+
+
+def _ratio_number(x: float, digits: int) -> str:
+    if abs(x - round(x)) < 1e-9 * max(1.0, x):
+        return f"{round(x):d}"
+    return f"{x:.{digits}g}"
 
 
 def spell_revolutions(unit_text: str) -> str:

@@ -15,6 +15,7 @@ from pathlib import Path
 from typing import Any
 
 from similitude.errors import InputError
+from similitude.units import format_scale
 
 
 def add_parser(sub) -> argparse.ArgumentParser:
@@ -106,10 +107,8 @@ def _plan_runs(plan) -> list[Any] | None:
 
 
 def _summary(e, u=None) -> str:
-    from similitude.commands.plan import scale_text
-
     lines = [f"{e.ship.name}: {len(e.runs)} runs from {e.runs.source or 'input'}, scale "
-             f"{scale_text(e.ship.scale)}"]
+             f"{format_scale(e.ship.scale)}"]
     lines.append(f"  method       {e.options.revision_note}")
     fs = e.fit_summary()
     text = f"k = {e.form_factor:.4f} ({fs['source']}"
@@ -221,7 +220,8 @@ def _plan_speed_notes(runs, plan, scale: float) -> list[str]:
         return []
     notes = planned_speed_notes(runs, ids, matrix["model speed [m/s]"])
     if notes and abs(scale / float(plan.scale) - 1.0) > 1e-6:
-        notes.append(f"the scale used (1:{scale:.4g}) is not the plan's (1:{plan.scale:.4g})")
+        notes.append(f"the scale used ({format_scale(scale)}) is not the plan's "
+                     f"({format_scale(plan.scale)})")
     return notes
 
 

@@ -16,6 +16,7 @@ from pathlib import Path
 from typing import Any
 
 from similitude.errors import InputError
+from similitude.units import format_scale
 
 #: CSV tables written by ``--csv``: file stem -> Plan attribute (or builder).
 CSV_TABLES = ("groups", "checks", "matrix", "scale_factors", "speeds")
@@ -49,13 +50,6 @@ def add_parser(sub) -> argparse.ArgumentParser:
 
 
 # -- helpers ----------------------------------------------------------------------------
-
-def scale_text(scale: float) -> str:
-    """The scale in the trade's notation: 25 -> '1:25', 24.63 -> '1:24.63'."""
-    if abs(scale - round(scale)) < 1e-9 * max(1.0, scale):
-        return f"1:{round(scale):d}"
-    return f"1:{scale:.4g}"
-
 
 def _targets(args) -> list[Path]:
     """All files this run would write, checked before any work."""
@@ -127,7 +121,7 @@ def summary(plan) -> str:
 
     case = plan.case
     lines = [f"{case.name}: {case.prototype.name} in {case.facility.name}"]
-    lines.append(f"  scale           {scale_text(plan.scale)}  (model length "
+    lines.append(f"  scale           {format_scale(plan.scale)}  (model length "
                  f"{_fmt(plan.model_length)} m, prototype {_fmt(case.prototype.length)} m)")
     mf = plan.model_fluid
     fluid = f"{mf.fluid} at {float(mf.temperature_si) - 273.15:.1f} degC"

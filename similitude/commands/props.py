@@ -15,6 +15,7 @@ import math
 import re
 import sys
 
+from similitude.constants import P_ATM
 from similitude.errors import InputError
 
 #: Names on the command line -> the fluid they select.
@@ -171,7 +172,7 @@ def property_table(fluid: str, states: dict[str, list[float]], extrapolate: bool
     elif fluid == "nitrogen":
         state = fp.nitrogen(kw["temperature"], **_opt(kw, "pressure"), extrapolate=extrapolate)
     else:  # a catalogue fluid through its SI evaluator
-        p = cols.get("pressure", np.full(len(grid), 101325.0))
+        p = cols.get("pressure", np.full(len(grid), P_ATM))
         state = fp.get_fluid(fluid).evaluate_si(cols["temperature"], p, extrapolate=extrapolate)
     n = len(grid)
     table: dict[str, object] = {}

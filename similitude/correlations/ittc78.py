@@ -33,6 +33,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from similitude.constants import AIR_DENSITY
 from similitude.correlations.inputs import as_array as _arr
 from similitude.correlations.inputs import check_method as _check_method
 from similitude.correlations.inputs import scalar_or_array as _out
@@ -58,7 +59,7 @@ RUDDER_WAKE_ALLOWANCE = 0.04
 DEFAULT_AIR_DRAG_COEFFICIENT = 0.8
 
 #: Density of air [kg/m^3], ISO 2533 standard atmosphere at sea level (15 degC).
-AIR_DENSITY_15C = 1.225
+AIR_DENSITY_15C = AIR_DENSITY
 
 #: Density of standard sea water at 15 degC and 35.16504 g/kg [kg/m^3] (ITTC 7.5-02-01-03,
 #: Rev 02 2011, table).

@@ -23,7 +23,7 @@ import math
 
 import numpy as np
 
-from similitude.dimensional.numbers import G0
+from similitude.constants import G0
 from similitude.errors import InputError
 
 #: Spectrum names understood by :func:`spectrum`.

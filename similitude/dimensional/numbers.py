@@ -13,8 +13,7 @@ from __future__ import annotations
 
 import numpy as np
 
-#: Standard acceleration of gravity [m/s^2] (CGPM 1901; ISO 80000-3).
-G0 = 9.80665
+from similitude.constants import G0
 
 
 def froude(speed, length, g=G0):

@@ -10,6 +10,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 
+from similitude.constants import P_ATM
 from similitude.errors import InputError
 from similitude.planning.facilities import Facility
 
@@ -146,7 +147,7 @@ class Prototype:
     rotation_rates: tuple[float, ...] = ()
     water_depth: float | None = None
     immersion: float | None = None
-    ambient_pressure: float = 101325.0
+    ambient_pressure: float = P_ATM
 
     def __post_init__(self) -> None:
         if self.kind not in PROTOTYPE_KINDS:

@@ -52,7 +52,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from similitude.dimensional.numbers import G0
+from similitude.constants import G0
 from similitude.planning.case import dimension_power
 from similitude.planning.findings import Check
 

@@ -39,7 +39,7 @@ import math
 
 import numpy as np
 
-from similitude.dimensional.numbers import G0
+from similitude.constants import G0
 from similitude.planning.findings import Conflict
 
 #: Propeller blade roughness of the ITTC-78 scale correction [m] [2].

@@ -34,8 +34,9 @@ import math
 
 import numpy as np
 
+from similitude.constants import G0, KNOT
 from similitude.correlations import waves
-from similitude.dimensional.numbers import G0, froude, reynolds
+from similitude.dimensional.numbers import froude, reynolds
 from similitude.errors import InputError
 
 SPEED_BASES = ("prototype", "froude", "model")
@@ -53,7 +54,6 @@ DEFAULT_WAITING_TIME = {
 DEFAULT_REGULAR_CYCLES = 20  # [-]
 DEFAULT_TUNNEL_DWELL = 60.0  # [s]
 DEFAULT_SEA_DURATION = 3.0 * 3600.0  # [s] full scale
-_KN = 1852.0 / 3600.0
 
 
 def _speeds(case, solution):
@@ -219,7 +219,7 @@ def build_matrix(case, solution):
     cols["loading"] = names[i_l]
     cols["heading [deg]"] = np.asarray(heads, dtype=float)[i_h]
     cols["prototype speed [m/s]"] = vp
-    cols["prototype speed [kn]"] = vp / _KN
+    cols["prototype speed [kn]"] = vp / KNOT
     cols["model speed [m/s]"] = vm
     cols["Froude number [-]"] = froude(vm, lm)
     cols["prototype Froude number [-]"] = froude(vp, lp)

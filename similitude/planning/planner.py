@@ -28,11 +28,11 @@ from dataclasses import asdict, dataclass, field, replace
 import numpy as np
 
 from fluids_props import FluidState
+from similitude.constants import KNOT
 from similitude.planning.case import Case, dimension_power
 from similitude.planning.findings import Check, Conflict
 from similitude.planning.solution import Solution
-
-_KN = 1852.0 / 3600.0
+from similitude.units import format_scale
 
 
 @dataclass(frozen=True)
@@ -123,7 +123,7 @@ class Plan:
             "prototype": self.case.prototype.name,
             "facility": self.case.facility.name,
             "scale": self.scale,
-            "scale_text": f"1:{self.scale:.4g}",
+            "scale_text": format_scale(self.scale),
             "limiting_scale": _plain(sol.extra.get("limiting_scale", self.scale)),
             "model_length [m]": self.model_length,
             "model_dimensions": {k: _plain(v) for k, v in self.model_dimensions.items()},
@@ -155,8 +155,8 @@ class Plan:
         return [
             f"Plan '{c.name}': {c.prototype.name} ({c.prototype.kind}, L = "
             f"{c.prototype.length:.4g} m) in {c.facility.name} ({c.facility.kind})",
-            f"  scale 1:{self.scale:.4g}; model length {self.model_length:.4g} m"
-            + (f" (limiting scale 1:{self.solution.extra['limiting_scale']:.6g})"
+            f"  scale {format_scale(self.scale)}; model length {self.model_length:.4g} m"
+            + (f" (limiting scale {format_scale(self.solution.extra['limiting_scale'], 6)})"
                if self.solution.extra.get("limiting_scale", self.scale) != self.scale
                else ""),
             f"  model fluid {mf.fluid} at {t - 273.15:.2f} degC, {p / 1000:.6g} kPa "
@@ -306,7 +306,7 @@ def _speeds_table(case: Case, solution: Solution):
     vp = np.asarray(case.prototype.speeds, dtype=float)
     data = {
         "prototype speed [m/s]": vp,
-        "prototype speed [kn]": vp / _KN,
+        "prototype speed [kn]": vp / KNOT,
         "model speed [m/s]": vp * solution.velocity_ratio,
     }
     if case.prototype.rotation_rates and solution.rotation_ratio is not None:
@@ -433,12 +433,12 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
         lam0 = sol.extra["limiting_scale"]
         if rounding.startswith("rounded"):
             out.append(
-                f"Scale {rounding}: the facility limits allow 1:{lam0:.6g} "
+                f"Scale {rounding}: the facility limits allow {format_scale(lam0, 6)} "
                 f"({sol.extra['limiting_binding']}); every limit still holds at "
-                f"1:{sol.scale:g} (switch off with round_scale = false)."
+                f"{format_scale(sol.scale, 6)} (switch off with round_scale = false)."
             )
         else:
-            out.append(f"Scale kept at the limiting 1:{lam0:.4g}, {rounding}.")
+            out.append(f"Scale kept at the limiting {format_scale(lam0)}, {rounding}.")
     out.extend(_temperature_notes(case, sol))
     if case.prototype.kind in ("surface_ship", "submerged_body") and case.facility.free_surface:
         out.append(turbulence_stimulation_advice(case.prototype.length / sol.scale))

@@ -61,10 +61,11 @@ import numpy as np
 
 from fluids_props import FluidState, get_fluid
 from fluids_props.validity import OutOfRangeError
-from similitude.dimensional.numbers import G0
+from similitude.constants import G0, P_ATM
 from similitude.errors import InfeasibleError, InputError
 from similitude.planning.case import Case, FluidSpec
 from similitude.planning.solution import Solution
+from similitude.units import format_scale
 
 #: Exponent e of the model speed in each group at fixed scale and fluid state (G ~ V^e); a
 #: propeller's rotation rate follows V (J kept), so J has exponent 0.
@@ -87,7 +88,6 @@ FREE_GROUPS = ("advance_ratio", "strouhal")
 DEFAULT_CANDIDATES = 20000
 
 #: Standard atmospheric pressure [Pa] (ISO 2533).
-P_ATM = 101325.0
 
 _AXES = ("T", "p", "lam", "V")
 _SOLVE_PREFERENCE = ("p", "T", "lam", "V")
@@ -973,7 +973,7 @@ def _describe_infeasible(prob, pick: _Pick) -> str:
         which = "the largest admissible model"
     else:
         which = "the least-violating model"
-    where = (f"at {which} (1:{lam:.4g}, L_m = {prob.case.prototype.length / lam:.4g} m, "
+    where = (f"at {which} ({format_scale(lam)}, L_m = {prob.case.prototype.length / lam:.4g} m, "
              f"{opt.name} at {float(c.temperature[0]):.5g} K, {float(c.pressure[0]):.6g} Pa)")
     msg = lims[order[0]].describe(0, where)
     others = [lims[j].name for j in order[1:] if vmat[j, 0] > 1e-9]
@@ -983,7 +983,8 @@ def _describe_infeasible(prob, pick: _Pick) -> str:
         nu_p = float(prob.proto.state.kinematic_viscosity_si)
         nu_m = float(np.ravel(c.state.kinematic_viscosity_si)[0])
         msg += (f"; Froude and Reynolds together need nu_m/nu_p = lambda^-1.5 "
-                f"(nu_m/nu_p = {nu_m / nu_p:.4g} here), which fixes the scale at 1:{lam:.4g}")
+                f"(nu_m/nu_p = {nu_m / nu_p:.4g} here), which fixes the scale at "
+                f"{format_scale(lam)}")
     return msg
 
 
@@ -1009,7 +1010,7 @@ def _no_root_message(prob, r_by_opt) -> str:
         nu_p = float(prob.proto.state.kinematic_viscosity_si)
         lam = prob.options[0].axes["lam"].low
         msg += (f"; Froude and Reynolds together need nu_m/nu_p = lambda^-1.5, i.e. "
-                f"nu_m = {nu_p * lam ** -1.5:.3g} m^2/s at the largest model (1:{lam:.4g})")
+                f"nu_m = {nu_p * lam ** -1.5:.3g} m^2/s at the largest model ({format_scale(lam)})")
     return msg
 
 
@@ -1090,17 +1091,18 @@ def _round_scale(case: Case, sol: Solution, n_candidates: int) -> Solution:
         try:
             new = _solve_relaxing(fixed, n_candidates)
         except (InfeasibleError, InputError) as exc:
-            tried.append(f"1:{lam:g} ({exc})")
+            tried.append(f"{format_scale(lam, 6)} ({exc})")
             continue
         extra = {**new.extra, "limiting_scale": lam0, "limiting_binding": sol.binding,
-                 "scale_rounding": f"rounded {direction} from the limiting 1:{lam0:.6g} to "
-                                   f"the convenient 1:{lam:g}"}
+                 "scale_rounding": f"rounded {direction} from the limiting "
+                                   f"{format_scale(lam0, 6)} to the convenient "
+                                   f"{format_scale(lam, 6)}"}
         for key in ("relaxed", "request"):
             if key in sol.extra:
                 extra[key] = sol.extra[key]
         return replace(new, extra=extra, objective=sol.objective,
                        binding=f"{sol.binding}; scale rounded {direction} to the convenient "
-                               f"1:{lam:g} (limiting 1:{lam0:.6g})",
+                               f"{format_scale(lam, 6)} (limiting {format_scale(lam0, 6)})",
                        candidates_searched=searched + new.candidates_searched)
     why = "; ".join(tried) if tried else "no convenient scale inside the search range"
     return replace(sol, extra={**sol.extra, "limiting_scale": lam0,

@@ -44,6 +44,7 @@ import numpy as np
 
 from fluids_props.seawater import sea_water_si
 from fluids_props.water import fresh_water_si
+from similitude.constants import AIR_DENSITY, G0, ITTC_TEMPERATURE, KNOT, P_ATM, STANDARD_SALINITY
 from similitude.correlations import blockage as _blockage
 from similitude.correlations import friction as _friction
 from similitude.correlations import ittc78
@@ -51,15 +52,9 @@ from similitude.errors import InputError
 from similitude.readers.measured import ResistanceRuns
 from similitude.units import parse_scale, to_si
 
-G = 9.80665  # standard gravity [m/s^2], ISO 80000-3
-
 METHODS = ("ittc1978", "froude")
 """``"ittc1978"``: form factor (1+k) on the friction; ``"froude"``: 1+k = 1 (Froude's method)."""
 
-STANDARD_TEMPERATURE = 288.15  # 15 degC, the ITTC standard for model and ship water [K]
-STANDARD_SALINITY = 0.03516504  # kg/kg, TEOS-10 standard sea water
-AIR_DENSITY = 1.225  # ISO 2533 sea-level air at 15 degC [kg/m^3]
-KNOT = 1852.0 / 3600.0  # m/s
 
 CAUTION = (
     "Full-scale predictions are estimates from the ITTC-1978 method as revised; they do not "
@@ -116,7 +111,7 @@ class ShipParticulars:
     bilge_keel_area: float = 0.0
     midship_area: float | None = None
     beam: float | None = None
-    water_temperature: float = STANDARD_TEMPERATURE
+    water_temperature: float = ITTC_TEMPERATURE
     salinity: float = STANDARD_SALINITY
     air_density: float = AIR_DENSITY
     hull_roughness: float = ittc78.DEFAULT_HULL_ROUGHNESS
@@ -290,7 +285,7 @@ class ExtrapolationOptions:
     air_method: str = "revised"
     air_drag_coefficient: float = ittc78.DEFAULT_AIR_DRAG_COEFFICIENT
     friction_line: str = "ittc1957"
-    standard_temperature: float = STANDARD_TEMPERATURE
+    standard_temperature: float = ITTC_TEMPERATURE
     blockage: str | None = None
     tank: TankParticulars | None = None
 
@@ -458,7 +453,7 @@ def _water_si(temperature, salinity: float = 0.0):
     """(density [kg/m^3], kinematic viscosity [m^2/s]) of fresh or sea water at 1 atm."""
     t = np.asarray(temperature, dtype=float)
     if salinity > 0:
-        state = sea_water_si(t, 101325.0, salinity)
+        state = sea_water_si(t, P_ATM, salinity)
     else:
         state = fresh_water_si(t)
     return (np.asarray(state.density_si, dtype=float),
@@ -499,7 +494,7 @@ def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
     line = options.friction_line
 
     def model_coefficients(v):
-        fn = v / np.sqrt(G * lm)
+        fn = v / np.sqrt(G0 * lm)
         re = v * lm / nu_m
         ctm = ittc78.coefficient_from_resistance(r_m, rho_m, sm, v)
         cfm = _friction.friction_coefficient(re, line)
@@ -524,7 +519,7 @@ def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
             raise InputError("ship.midship_area: missing; the blockage correction needs the "
                              "midship section area A_X")
         blockage_ratio = ship.midship_area / ship.scale**2 / (tank.width * tank.depth)
-        depth_froude = v_carriage / np.sqrt(G * tank.depth)
+        depth_froude = v_carriage / np.sqrt(G0 * tank.depth)
         # The viscous share R_V/R_T of Schuster's wave term needs k: a first estimate from the
         # uncorrected runs, then the whole model analysis is redone on the corrected speeds.
         k0, _ = form_factor_of(fn, ctm, cfm)

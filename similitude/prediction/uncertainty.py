@@ -35,8 +35,9 @@ from typing import Any
 
 import numpy as np
 
+from similitude.constants import KNOT
 from similitude.errors import InputError
-from similitude.prediction.extrapolation import KNOT, Extrapolation, pipeline_si
+from similitude.prediction.extrapolation import Extrapolation, pipeline_si
 from similitude.units import to_si
 
 METHOD_STATEMENT = (

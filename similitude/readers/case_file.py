@@ -32,6 +32,7 @@ from collections.abc import Mapping
 from pathlib import Path
 from typing import Any
 
+from similitude.constants import P_ATM
 from similitude.errors import BAD_INPUT_ERRORS, InputError
 from similitude.planning.case import (
     MATCHABLE_GROUPS,
@@ -480,7 +481,7 @@ def _read_prototype(r: _Reader, data: Any) -> Prototype | None:
     try:
         return Prototype(kind=kind, length=length, speeds=speeds, fluid=fluid, name=name,
                          dimensions=sizes, rotation_rates=rates or (), water_depth=depth,
-                         immersion=immersion, ambient_pressure=air_p or 101325.0)
+                         immersion=immersion, ambient_pressure=air_p or P_ATM)
     except InputError as exc:
         r.problems.extend(exc.problems)
         return None

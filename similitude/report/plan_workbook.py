@@ -28,8 +28,10 @@ from xml.sax.saxutils import escape
 
 import numpy as np
 
+from similitude.constants import KNOT
 from similitude.report import formulas
 from similitude.report.atomic import write_atomic
+from similitude.units import format_scale
 
 SHEET_NAMES = ("Overview", "Similarity", "Facility checks", "Runs", "Scaling", "Fluids",
                "Test day", "Charts", "Basis")
@@ -348,10 +350,6 @@ def _kv(ws, row: int, key: str, value, fmt: str | None = None, st=None) -> int:
     return row + 1
 
 
-def _scale_text(scale: float) -> str:
-    return f"1:{scale:.4g}" if scale >= 1 else f"{1 / scale:.4g}:1"
-
-
 # -- the workbook ---------------------------------------------------------------------------
 def _design_row(plan):
     """Prototype speed [m/s] of the design (highest) speed, or None."""
@@ -376,7 +374,7 @@ def _sheet_overview(wb, plan, st):
     r = _kv(ws, r, "prototype length [m]", proto.length, "0.000", st)
     r = _kv(ws, r, "facility", f"{fac.name} ({fac.kind}, {fac.length:g} m x {fac.width:g} m x "
             f"{fac.depth:g} m)", st=st)
-    r = _kv(ws, r, "scale", _scale_text(plan.scale), st=st)
+    r = _kv(ws, r, "scale", format_scale(plan.scale), st=st)
     r = _kv(ws, r, "scale ratio lambda [-]", plan.scale, "0.000", st)
     r = _kv(ws, r, "model length [m]", plan.model_length, "0.000", st)
     for label, fs in (("prototype fluid", plan.prototype_fluid),
@@ -393,7 +391,7 @@ def _sheet_overview(wb, plan, st):
     d = _design_row(plan)
     if d is not None:
         vp = float(d["prototype speed [m/s]"])
-        r = _kv(ws, r, "design speed, prototype [kn]", vp / (1852 / 3600), "0.00", st)
+        r = _kv(ws, r, "design speed, prototype [kn]", vp / KNOT, "0.00", st)
         if "model speed [m/s]" in d:
             r = _kv(ws, r, "design speed, model [m/s]", float(d["model speed [m/s]"]),
                     "0.000", st)

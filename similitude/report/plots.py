@@ -15,8 +15,9 @@ import pathlib
 
 import numpy as np
 
-from similitude.dimensional.numbers import G0
+from similitude.constants import G0
 from similitude.errors import InputError
+from similitude.units import format_scale
 
 PLOT_KINDS = ("all", "scale_window", "reynolds", "groups")
 
@@ -124,7 +125,7 @@ def _draw_window(plan, ax) -> None:
         ax.barh(i, hi_d - lo, left=lo, height=0.6, color="#8fc98f" if ok else "#e8a0a0",
                 edgecolor="0.3")
     ax.axvline(lam, color="k", lw=2)
-    ax.text(lam, len(win) - 0.4, f" chosen 1:{lam:.4g}", va="bottom")
+    ax.text(lam, len(win) - 0.4, f" chosen {format_scale(lam)}", va="bottom")
     ax.set_xscale("log")
     ax.set_xlim(left, right)
     ax.set_ylim(-0.6, len(win) + 0.2)

@@ -18,6 +18,7 @@ from typing import Any
 
 import numpy as np
 
+from similitude.constants import KNOT
 from similitude.report.atomic import write_atomic
 
 CAUTIONS = (
@@ -323,7 +324,7 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
         "(1+k) C_FM [-]": (1 + e.form_factor) * a["cfm15"][order],
         "C_FS ITTC-1957 [-]": a["cfs"][order],
         "C_TS [-]": a["cts"][order],
-        "ship speed [kn]": a["ship_speed"][order] / (1852 / 3600),
+        "ship speed [kn]": a["ship_speed"][order] / KNOT,
         "P_E [kW]": a["pe"][order] / 1e3,
     })
     first, last = _write_frame(ws, chart_data, 1, 1)

@@ -10,11 +10,11 @@ file is replaced without ``--force``.
 from __future__ import annotations
 
 import argparse
-import json
 from pathlib import Path
 from typing import Any
 
 from similitude.errors import InputError
+from similitude.plain_data import to_json
 from similitude.units import format_scale
 
 
@@ -198,7 +198,7 @@ def run(args) -> int:
                                   "table": ow.table.to_dict(orient="records")}
         if written is not None:
             data["written"] = str(written)
-        print(json.dumps(data, indent=2, default=_json_default))
+        print(to_json(data))
     else:
         print(_summary(e, u))
         for note in plan_notes:
@@ -258,15 +258,3 @@ def _open_water_summary(ow) -> str:
              f"(model {t['eta_0 model [-]'][best]:.3f}) at J = {j_best:.2f}"]
     lines.extend(f"  note: {n}" for n in ow.notes[1:])
     return "\n".join(lines)
-
-
-def _json_default(o):
-    import numpy as np
-
-    if isinstance(o, np.generic):
-        return o.item()
-    if isinstance(o, np.ndarray):
-        return o.tolist()
-    if isinstance(o, (set, tuple)):
-        return list(o)
-    return str(o)

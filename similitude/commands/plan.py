@@ -9,13 +9,14 @@ without ``--force``.
 from __future__ import annotations
 
 import argparse
-import json
 import math
 import sys
 from pathlib import Path
 from typing import Any
 
 from similitude.errors import InputError
+from similitude.plain_data import to_json
+from similitude.planning.findings import checks_table
 from similitude.units import format_scale
 
 #: CSV tables written by ``--csv``: file stem -> Plan attribute (or builder).
@@ -85,14 +86,6 @@ def _check_targets(paths: list[Path], force: bool) -> None:
         raise InputError(problems)
 
 
-def _checks_frame(checks) -> Any:
-    import pandas as pd
-
-    rows = [{"check": c.name, "value": c.value, "limit": c.limit, "unit": c.unit,
-             "kind": c.kind, "status": c.status, "margin [-]": c.margin, "source": c.source,
-             "advice": c.advice} for c in checks]
-    return pd.DataFrame(rows, columns=["check", "value", "limit", "unit", "kind", "status",
-                                       "margin [-]", "source", "advice"])
 
 
 def _fmt(x: Any, digits: int = 4) -> str:
@@ -172,29 +165,6 @@ def summary(plan) -> str:
     return "\n".join(lines)
 
 
-def _to_json(value: Any) -> str:
-    def default(o):
-        import numpy as np
-
-        if isinstance(o, np.generic):
-            return o.item()
-        if isinstance(o, np.ndarray):
-            return o.tolist()
-        if isinstance(o, (set, tuple)):
-            return list(o)
-        return str(o)
-
-    def finite(o):
-        # Strict JSON has no NaN or Infinity: write them as null.
-        if isinstance(o, float) and not math.isfinite(o):
-            return None
-        if isinstance(o, dict):
-            return {str(k): finite(v) for k, v in o.items()}
-        if isinstance(o, (list, tuple)):
-            return [finite(v) for v in o]
-        return o
-
-    return json.dumps(finite(value), indent=2, default=default, allow_nan=False)
 
 
 # -- the command --------------------------------------------------------------------------
@@ -220,11 +190,11 @@ def run(args) -> int:
     csv_texts = {}
     if args.csv:
         tables = {
-            "groups": plan.groups, "checks": _checks_frame(plan.checks),
+            "groups": plan.groups, "checks": checks_table(plan.checks),
             "matrix": plan.matrix, "scale_factors": plan.scale_factors, "speeds": plan.speeds,
         }
         csv_texts = {stem: tables[stem].to_csv(index=False) for stem in CSV_TABLES}
-    json_text = _to_json(plan.to_dict()) if args.json else None
+    json_text = to_json(plan.to_dict()) if args.json else None
 
     written: list[Path] = []
     if args.output:

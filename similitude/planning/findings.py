@@ -6,6 +6,10 @@ from dataclasses import dataclass, field
 
 STATUSES = ("ok", "warning", "fail", "info")
 
+#: Columns of :func:`checks_table`, in order.
+CHECK_COLUMNS = ("check", "value", "limit", "unit", "kind", "status", "margin [-]", "source",
+                 "advice")
+
 
 @dataclass(frozen=True)
 class Check:
@@ -77,3 +81,16 @@ class Conflict:
     def ratio(self) -> float:
         """Prototype value over model value."""
         return self.prototype_value / self.model_value if self.model_value else float("inf")
+
+
+def checks_table(checks):
+    """The checks as a DataFrame, one row each, columns :data:`CHECK_COLUMNS`.
+
+    The one conversion of checks to a table; the workbook, the CSV output and the notebook
+    view select and label its columns.
+    """
+    import pandas as pd  # heavy; the checks themselves do not need it
+
+    rows = [(c.name, c.value, c.limit, c.unit, c.kind, c.status, c.margin, c.source, c.advice)
+            for c in checks]
+    return pd.DataFrame(rows, columns=list(CHECK_COLUMNS))

@@ -22,15 +22,15 @@ References
 from __future__ import annotations
 
 import html
-import math
 from dataclasses import asdict, dataclass, field, replace
 
 import numpy as np
 
 from fluids_props import FluidState
 from similitude.constants import KNOT
+from similitude.plain_data import plain
 from similitude.planning.case import Case, dimension_power
-from similitude.planning.findings import Check, Conflict
+from similitude.planning.findings import Check, Conflict, checks_table
 from similitude.planning.solution import Solution
 from similitude.units import format_scale
 
@@ -104,17 +104,17 @@ class Plan:
         def frame(df):
             if df is None:
                 return []
-            return [{str(k): _plain(v) for k, v in row.items()}
+            return [{str(k): plain(v) for k, v in row.items()}
                     for row in df.to_dict(orient="records")]
 
         def check(c: Check) -> dict:
-            d = {k: _plain(v) for k, v in asdict(c).items()}
-            d["margin"] = _plain(c.margin)
+            d = {k: plain(v) for k, v in asdict(c).items()}
+            d["margin"] = plain(c.margin)
             return d
 
         def conflict(c: Conflict) -> dict:
-            d = {k: _plain(v) for k, v in asdict(c).items()}
-            d["ratio"] = _plain(c.ratio)
+            d = {k: plain(v) for k, v in asdict(c).items()}
+            d["ratio"] = plain(c.ratio)
             return d
 
         sol = self.solution
@@ -124,14 +124,14 @@ class Plan:
             "facility": self.case.facility.name,
             "scale": self.scale,
             "scale_text": format_scale(self.scale),
-            "limiting_scale": _plain(sol.extra.get("limiting_scale", self.scale)),
+            "limiting_scale": plain(sol.extra.get("limiting_scale", self.scale)),
             "model_length [m]": self.model_length,
-            "model_dimensions": {k: _plain(v) for k, v in self.model_dimensions.items()},
+            "model_dimensions": {k: plain(v) for k, v in self.model_dimensions.items()},
             "prototype_fluid": _state_dict(self.prototype_fluid),
             "model_fluid": _state_dict(self.model_fluid),
             "velocity_ratio": sol.velocity_ratio,
-            "rotation_ratio": _plain(sol.rotation_ratio),
-            "model_pressure [Pa]": _plain(sol.model_pressure),
+            "rotation_ratio": plain(sol.rotation_ratio),
+            "model_pressure [Pa]": plain(sol.model_pressure),
             "exact": list(sol.exact),
             "objective": sol.objective,
             "binding_constraint": self.binding_constraint,
@@ -188,12 +188,11 @@ class Plan:
         return "\n".join(lines)
 
     def _repr_html_(self) -> str:
-        import pandas as pd
 
         head = "<br>".join(html.escape(s.strip()) for s in self._headline())
-        checks = pd.DataFrame([{"check": c.name, "value": c.value, "limit": c.limit,
-                                "unit": c.unit, "status": c.status, "margin": c.margin,
-                                "source": c.source} for c in self.checks])
+        checks = checks_table(self.checks)[["check", "value", "limit", "unit", "status",
+                                            "margin [-]", "source"]]
+        checks = checks.rename(columns={"margin [-]": "margin"})
         conf = "".join(f"<li><b>{html.escape(c.group)}</b>: {html.escape(c.consequence)}</li>"
                        for c in self.conflicts)
         notes = "".join(f"<li>{html.escape(n)}</li>" for n in self.notes)
@@ -216,28 +215,9 @@ def _fmt(v) -> str:
     return str(v)
 
 
-def _plain(v):
-    if isinstance(v, dict):
-        return {str(k): _plain(x) for k, x in v.items()}
-    if isinstance(v, (list, tuple)):
-        return [_plain(x) for x in v]
-    if isinstance(v, np.ndarray):
-        return [_plain(x) for x in v.tolist()]
-    if isinstance(v, (np.bool_, bool)):
-        return bool(v)
-    if isinstance(v, (np.integer,)):
-        return int(v)
-    if isinstance(v, (float, np.floating)):
-        f = float(v)
-        return f if math.isfinite(f) else None
-    if hasattr(v, "isoformat"):
-        return v.isoformat()
-    return v
-
-
 def _state_dict(st: FluidState) -> dict:
     d = {"fluid": st.fluid}
-    d.update({k: _plain(np.asarray(v, dtype=float).item()) for k, v in st.as_dict().items()})
+    d.update({k: plain(np.asarray(v, dtype=float).item()) for k, v in st.as_dict().items()})
     return d
 
 

@@ -29,6 +29,7 @@ from xml.sax.saxutils import escape
 import numpy as np
 
 from similitude.constants import KNOT
+from similitude.planning.findings import checks_table
 from similitude.report import formulas
 from similitude.report.atomic import write_atomic
 from similitude.units import format_scale
@@ -474,17 +475,14 @@ def _fmt(v) -> str:
 
 
 def _sheet_checks(wb, plan, st):
-    import pandas as pd
     from openpyxl.styles import PatternFill
 
     ws = wb.create_sheet(SHEET_NAMES[2])
-    rows = [{"check": c.name, "model value": c.value, "limit": c.limit, "unit": c.unit,
-             "limit kind": c.kind, "margin [-]": c.margin, "status": c.status,
-             "source": c.source, "advice": c.advice} for c in getattr(plan, "checks", ())]
-    df = pd.DataFrame(rows, columns=["check", "model value", "limit", "unit", "limit kind",
-                                     "margin [-]", "status", "source", "advice"])
+    df = checks_table(plan.checks).rename(columns={"value": "model value", "kind": "limit kind"})
+    df = df[["check", "model value", "limit", "unit", "limit kind", "margin [-]", "status",
+             "source", "advice"]]
     _, last = _write_frame(ws, df, 1, 1, st)
-    for i, c in enumerate(getattr(plan, "checks", ())):
+    for i, c in enumerate(plan.checks):
         fill = _STATUS_FILL.get(c.status)
         if fill:
             ws.cell(row=2 + i, column=7).fill = PatternFill("solid", fgColor=fill)

@@ -212,7 +212,7 @@ def run(args) -> int:
 
 def _plan_speed_notes(runs, plan, scale: float) -> list[str]:
     """Notes where measured and planned model speeds of the same run id disagree."""
-    from similitude.readers.measured import planned_speed_notes
+    from similitude.prediction.runs import planned_speed_notes
 
     ids = _plan_runs(plan)
     matrix = getattr(plan, "matrix", None)

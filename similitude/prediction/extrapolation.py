@@ -49,7 +49,7 @@ from similitude.correlations import blockage as _blockage
 from similitude.correlations import friction as _friction
 from similitude.correlations import ittc78
 from similitude.errors import InputError
-from similitude.readers.measured import ResistanceRuns
+from similitude.prediction.runs import ResistanceRuns
 from similitude.units import parse_scale, to_si
 
 METHODS = ("ittc1978", "froude")

@@ -30,7 +30,7 @@ import numpy as np
 from fluids_props.water import fresh_water_si
 from similitude.correlations import propeller_scaling as _ps
 from similitude.errors import InputError
-from similitude.readers.measured import OpenWaterRuns
+from similitude.prediction.runs import OpenWaterRuns
 
 MIN_CHORD_REYNOLDS = 2.0e5
 """Smallest model chord Reynolds number at 0.75 R asked for open-water tests (ITTC

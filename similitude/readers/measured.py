@@ -1,12 +1,14 @@
-"""Measured model data: reading resistance runs and propeller open-water runs from CSV or xlsx.
+"""Reading measured model data: resistance runs and propeller open-water runs from CSV or xlsx.
 
 A measured file is a table with one row per run and the unit of each column in its header, in
 square brackets: ``model speed [m/s]``, ``total resistance [N]``, ``water temperature [degC]``.
 Any unit of the shared registry is accepted (``[kn]``, ``[lbf]``, ``[degF]``...); values are
-converted to SI here, at the edge, and never again. Every problem found in a file is reported,
-one line each, naming the row and the column, in one :class:`~similitude.errors.InputError`.
+converted to SI here, at the edge, and never again, into the data classes of
+:mod:`similitude.prediction.runs`. Every problem found in a file is reported, one line each,
+naming the row and the column, in one :class:`~similitude.errors.InputError`.
 
-pandas is imported inside the functions so that ``import similitude`` stays light.
+pandas is imported inside :func:`read_table`: the command line builds every command's parser at
+start, and reading measured files must not make that start pay for pandas.
 """
 
 from __future__ import annotations
@@ -14,21 +16,17 @@ from __future__ import annotations
 import math
 import re
 from collections.abc import Iterable
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
 import numpy as np
 import pint
 
+from fluids_props.water import fresh_water_si
 from similitude.errors import InputError
-from similitude.units import (
-    parse_quantity,
-    radians_per_turn,
-    spell_revolutions,
-    to_si,
-    ureg,
-)
+from similitude.prediction.runs import OpenWaterRuns, ResistanceRuns, run_id
+from similitude.units import radians_per_turn, spell_revolutions, to_si, ureg
 
 _HEADER = re.compile(r"^\s*(?P<name>.*?)\s*\[(?P<unit>[^\]]*)\]\s*$")
 
@@ -99,108 +97,6 @@ OPEN_WATER_COLUMNS: tuple[ColumnSpec, ...] = (
 )
 
 
-@dataclass(frozen=True, eq=False)
-class ResistanceRuns:
-    """Measured calm-water resistance runs of a model, SI.
-
-    Attributes
-    ----------
-    run : tuple of str
-        Run ids (the plan's, or ``"1"``, ``"2"``... for free rows).
-    speed : ndarray
-        Model speed [m/s].
-    resistance : ndarray
-        Measured total resistance [N] (stimulator drag not yet removed).
-    temperature : ndarray
-        Tank water temperature [K].
-    sinkage, trim, stimulator_drag : ndarray or None
-        Sinkage [m], trim [deg] and the parasitic drag of the turbulence stimulators [N].
-    source : str
-        Where the data came from (file name).
-    """
-
-    run: tuple[str, ...]
-    speed: np.ndarray
-    resistance: np.ndarray
-    temperature: np.ndarray
-    sinkage: np.ndarray | None = None
-    trim: np.ndarray | None = None
-    stimulator_drag: np.ndarray | None = None
-    source: str = ""
-
-    def __len__(self) -> int:
-        return len(self.run)
-
-    def to_frame(self):
-        """The runs as a DataFrame with units in the headers."""
-        import pandas as pd
-
-        data: dict[str, Any] = {
-            "run": list(self.run),
-            "model speed [m/s]": self.speed,
-            "total resistance [N]": self.resistance,
-            "water temperature [degC]": self.temperature - 273.15,
-        }
-        if self.sinkage is not None:
-            data["sinkage [m]"] = self.sinkage
-        if self.trim is not None:
-            data["trim [deg]"] = self.trim
-        if self.stimulator_drag is not None:
-            data["stimulator drag [N]"] = self.stimulator_drag
-        return pd.DataFrame(data)
-
-
-@dataclass(frozen=True, eq=False)
-class OpenWaterRuns:
-    """Measured propeller open-water runs, SI.
-
-    Attributes
-    ----------
-    run : tuple of str
-    advance_ratio : ndarray
-        J = V_A/(n D) [-].
-    thrust_coefficient : ndarray
-        K_T = T/(rho n^2 D^4) [-].
-    torque_coefficient : ndarray
-        K_Q = Q/(rho n^2 D^5) [-].
-    temperature : ndarray or None
-        Water temperature [K].
-    rotation_rate : ndarray or None
-        n [1/s] when measured (gives the model chord Reynolds number).
-    advance_speed : ndarray or None
-        V_A [m/s] when measured.
-    source : str
-    """
-
-    run: tuple[str, ...]
-    advance_ratio: np.ndarray
-    thrust_coefficient: np.ndarray
-    torque_coefficient: np.ndarray
-    temperature: np.ndarray | None = None
-    rotation_rate: np.ndarray | None = None
-    advance_speed: np.ndarray | None = None
-    source: str = ""
-    extra: dict = field(default_factory=dict)
-
-    def to_frame(self):
-        """The runs as a DataFrame with units in the headers."""
-        import pandas as pd
-
-        data: dict[str, Any] = {
-            "run": list(self.run),
-            "advance ratio J [-]": self.advance_ratio,
-            "K_T model [-]": self.thrust_coefficient,
-            "K_Q model [-]": self.torque_coefficient,
-        }
-        if self.rotation_rate is not None:
-            data["rotation rate [1/s]"] = self.rotation_rate
-        if self.advance_speed is not None:
-            data["advance speed [m/s]"] = self.advance_speed
-        if self.temperature is not None:
-            data["water temperature [degC]"] = self.temperature - 273.15
-        return pd.DataFrame(data)
-
-
 # -- header and cell parsing ------------------------------------------------------------------
 
 
@@ -249,17 +145,6 @@ def _unit_factor(unit: str, spec: ColumnSpec, header: str):
         return np.asarray(si, dtype=float) / per_turn
 
     return convert
-
-
-def _run_id(value: Any) -> str:
-    if isinstance(value, float) and math.isfinite(value) and value.is_integer():
-        return str(int(value))
-    text = str(value).strip()
-    try:
-        number = float(text)
-    except ValueError:
-        return text
-    return str(int(number)) if math.isfinite(number) and number.is_integer() else text
 
 
 def _is_blank(value: Any) -> bool:
@@ -321,6 +206,50 @@ def read_table(path: str | Path, sheet: str | int | None = None):
     return frame
 
 
+def _find_columns(headers: list[Any], specs: Iterable[ColumnSpec], where: str,
+                  problems: list[str]) -> dict[str, tuple[ColumnSpec, str, str | None]]:
+    """key -> (spec, header, unit) of each column of ``specs`` found among the headers."""
+    found: dict[str, tuple[ColumnSpec, str, str | None]] = {}
+    for header in headers:
+        name, unit = split_header(header)
+        for spec in specs:
+            if name in spec.names:
+                if spec.key in found:
+                    problems.append(f"{where}columns {found[spec.key][1]!r} and {header!r} both "
+                                    f"give {spec.names[0]}; expected one")
+                found[spec.key] = (spec, str(header), unit)
+                break
+    return found
+
+
+def _run_ids(cells: list[Any], row_numbers: list[int]) -> list[str]:
+    # A blank run id marks a run made beyond the plan (e.g. a low-speed series for the form
+    # factor); it is named after its row and not checked.
+    return [f"{EXTRA_RUN_PREFIX}{row}" if _is_blank(cell) else run_id(cell)
+            for row, cell in zip(row_numbers, cells, strict=True)]
+
+
+def _numbers(cells: list[Any], row_numbers: list[int], header: str, where: str,
+             problems: list[str]) -> np.ndarray | None:
+    """The cells of one column as floats, or None after a problem per bad cell."""
+    values = np.empty(len(cells))
+    bad = False
+    for i, (row, cell) in enumerate(zip(row_numbers, cells, strict=True)):
+        if _is_blank(cell):
+            problems.append(f"{where}row {row}, column {header!r}: empty cell; expected a "
+                            "number")
+            bad = True
+            continue
+        number = _to_float(cell)
+        if number is None or not math.isfinite(number):
+            problems.append(f"{where}row {row}, column {header!r}: {cell!r} is not a "
+                            "finite number")
+            bad = True
+            continue
+        values[i] = number
+    return None if bad else values
+
+
 def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
                   given: dict[str, Any] | None = None) -> dict[str, Any]:
     """Find the columns of ``specs`` in a raw frame and convert their cells to SI.
@@ -353,16 +282,7 @@ def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
     problems: list[str] = []
     where = f"{source}: " if source else ""
     headers = list(frame.columns)
-    found: dict[str, tuple[ColumnSpec, str, str | None]] = {}
-    for header in headers:
-        name, unit = split_header(header)
-        for spec in specs:
-            if name in spec.names:
-                if spec.key in found:
-                    problems.append(f"{where}columns {found[spec.key][1]!r} and {header!r} both "
-                                    f"give {spec.names[0]}; expected one")
-                found[spec.key] = (spec, str(header), unit)
-                break
+    found = _find_columns(headers, specs, where, problems)
     n = len(frame)
     out: dict[str, Any] = {}
     # Rows are numbered as a spreadsheet shows them: the header is row 1.
@@ -384,12 +304,7 @@ def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
         spec, header, unit = found[spec.key]
         cells = list(frame[header])
         if spec.dimension is None:
-            ids = []
-            for row, cell in zip(row_numbers, cells, strict=True):
-                # A blank run id marks a run made beyond the plan (e.g. a low-speed series
-                # for the form factor); it is named after its row and not checked.
-                ids.append(f"{EXTRA_RUN_PREFIX}{row}" if _is_blank(cell) else _run_id(cell))
-            out[spec.key] = ids
+            out[spec.key] = _run_ids(cells, row_numbers)
             continue
         if unit is None:
             problems.append(f"{where}column {header!r} has no unit in its header; expected e.g. "
@@ -400,22 +315,8 @@ def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
         except InputError as exc:
             problems.extend(f"{where}{p}" for p in exc.problems)
             continue
-        values = np.empty(n)
-        bad = False
-        for i, (row, cell) in enumerate(zip(row_numbers, cells, strict=True)):
-            if _is_blank(cell):
-                problems.append(f"{where}row {row}, column {header!r}: empty cell; expected a "
-                                "number")
-                bad = True
-                continue
-            number = _to_float(cell)
-            if number is None or not math.isfinite(number):
-                problems.append(f"{where}row {row}, column {header!r}: {cell!r} is not a "
-                                "finite number")
-                bad = True
-                continue
-            values[i] = number
-        if not bad:
+        values = _numbers(cells, row_numbers, header, where, problems)
+        if values is not None:
             out[spec.key] = convert(values)
     if problems:
         raise InputError(problems)
@@ -432,7 +333,7 @@ def _check_ids(ids: list[str], where: str, plan_runs: Iterable[Any] | None,
         else:
             seen[rid] = i
     if plan_runs is not None:
-        allowed = {_run_id(r) for r in plan_runs}
+        allowed = {run_id(r) for r in plan_runs}
         for i, rid in enumerate(ids):
             if rid not in allowed and not rid.startswith(EXTRA_RUN_PREFIX):
                 problems.append(f"{where}row {i + 2}, column 'run': run {rid!r} is not in the "
@@ -499,31 +400,6 @@ def resistance_runs_from_frame(frame, temperature: Any = None,
     return ResistanceRuns(tuple(ids), cols["speed"], cols["resistance"], cols["temperature"],
                           cols.get("sinkage"), cols.get("trim"), cols.get("stimulator_drag"),
                           source)
-
-
-def planned_speed_notes(runs: ResistanceRuns, plan_runs: Iterable[Any],
-                        planned_speeds: Iterable[float], tolerance: float = 0.02) -> list[str]:
-    """Notes on runs whose measured model speed differs from the plan's by more than
-    ``tolerance`` (relative): a hint that the file and the plan (or its scale) disagree.
-
-    Parameters
-    ----------
-    runs : ResistanceRuns
-    plan_runs : iterable
-        Run ids of the plan's matrix.
-    planned_speeds : iterable of float
-        The plan's model speeds [m/s], paired with ``plan_runs``.
-    tolerance : float
-        Relative difference that draws a note [-].
-    """
-    planned = {_run_id(r): float(v) for r, v in zip(plan_runs, planned_speeds, strict=True)}
-    notes = []
-    for rid, v in zip(runs.run, runs.speed, strict=True):
-        if rid in planned and abs(v / planned[rid] - 1.0) > tolerance:
-            notes.append(f"run {rid}: measured model speed {v:.4g} m/s differs from the "
-                         f"planned {planned[rid]:.4g} m/s by {100 * (v / planned[rid] - 1):+.1f} "
-                         "%; check the run ids and the scale")
-    return notes
 
 
 def read_resistance_runs(path: str | Path, temperature: Any = None,
@@ -594,8 +470,6 @@ def open_water_runs_from_frame(frame, diameter: float | None = None,
     kq = cols.get("torque_coefficient")
     if density is None and "temperature" in cols and (kt is None or kq is None):
         # Tank water: fresh water at the measured temperature of each run.
-        from fluids_props.water import fresh_water_si
-
         density = np.asarray(fresh_water_si(cols["temperature"]).density_si, dtype=float)
     needs_d = (j is None) or (kt is None) or (kq is None)
     if needs_d and not (diameter and diameter > 0):
@@ -670,12 +544,8 @@ __all__ = [
     "OPEN_WATER_COLUMNS",
     "RESISTANCE_COLUMNS",
     "ColumnSpec",
-    "OpenWaterRuns",
-    "ResistanceRuns",
     "columns_to_si",
     "open_water_runs_from_frame",
-    "parse_quantity",
-    "planned_speed_notes",
     "read_open_water_runs",
     "read_resistance_runs",
     "read_table",

@@ -2,14 +2,18 @@
 
 from __future__ import annotations
 
+import csv
 import json
 import math
+import shutil
+import subprocess
 from pathlib import Path
 
 import numpy as np
 import pytest
 from openpyxl import load_workbook
 
+from fluids_props.water import fresh_water_si
 from similitude.cli import main
 
 CASE = Path(__file__).resolve().parents[2] / "demo_cases" / "ferry_resistance.toml"
@@ -19,8 +23,6 @@ G = 9.80665
 @pytest.fixture
 def measured(tmp_path):
     """Free-row runs of an invented hull, C_TM = 1.18 C_F57 + 0.05 Fn^4, ferry at 1:20."""
-    from fluids_props.water import fresh_water_si
-
     lm, sm = 78.0 / 20, 1450.0 / 400
     fn = np.array([0.11, 0.13, 0.15, 0.17, 0.19, 0.23, 0.27, 0.31])
     v = fn * math.sqrt(G * lm)
@@ -151,20 +153,8 @@ def test_open_water_without_propeller_exits_two(measured, tmp_path):
                  "--open-water", str(ow)]) == 2
 
 
-def test_measured_speed_far_from_the_planned_one_draws_a_note():
-    from similitude.readers.measured import ResistanceRuns, planned_speed_notes
-
-    runs = ResistanceRuns(("1", "2"), np.array([1.0, 1.5]), np.array([5.0, 9.0]),
-                          np.array([290.0, 290.0]))
-    notes = planned_speed_notes(runs, [1, 2], [1.0, 1.2])
-    assert len(notes) == 1 and "run 2" in notes[0] and "+25.0 %" in notes[0]
-
-
 def _recalculated_sheet(soffice, book, sheet_name, tmp_path):
     """A sheet of ``book`` as LibreOffice recalculates it, as a list of dict rows."""
-    import csv
-    import subprocess
-
     index = load_workbook(book).sheetnames.index(sheet_name) + 1
     subprocess.run([soffice, f"-env:UserInstallation=file://{tmp_path}/lo", "--headless",
                     "--convert-to", "csv:Text - txt - csv (StarCalc):44,34,76,1,,0,false,"
@@ -179,8 +169,6 @@ def test_audit_formulas_recalculate_to_the_written_values(measured, tmp_path):
     # C_TM = R/(0.5 rho S_M V^2), C_TM,15 = C_TM + (1+k)(C_FM,15 - C_FM),
     # C_TS = bk[(1+k) C_FS + dC_F] + C_A + C_R + C_AAS and P_E = 0.5 rho S V^3 C_TS;
     # they must reproduce the values the program wrote beside them.
-    import shutil
-
     out = tmp_path / "results.xlsx"
     assert main(["extrapolate", str(measured), "--case", str(CASE), "--scale", "1:20",
                  "-o", str(out)]) == 0

@@ -8,6 +8,7 @@ import math
 import numpy as np
 import pytest
 
+from fluids_props.water import fresh_water_si
 from similitude.errors import InputError
 from similitude.planning.case import Case, FluidSpec, Prototype
 from similitude.planning.facilities import Facility
@@ -17,7 +18,10 @@ from similitude.prediction.extrapolation import (
     TankParticulars,
     extrapolate,
 )
-from similitude.readers.measured import ResistanceRuns, read_resistance_runs
+from similitude.prediction.runs import ResistanceRuns
+from similitude.prediction.uncertainty import prohaska_intercept_error
+from similitude.readers.measured import read_resistance_runs
+from similitude.report.atomic import OutputExistsError
 
 G = 9.80665  # standard gravity, ISO 80000-3
 KNOT = 1852.0 / 3600.0  # BIPM SI Brochure (2019), Table 8
@@ -40,8 +44,6 @@ SHIP = ShipParticulars(length=100.0, wetted_surface=2500.0, scale=25.0, transver
 
 def synthetic_runs(ship, k, noise=0.0, seed=1, froude=None, temperature=291.15):
     """Runs of a hull whose C_TM = (1+k) C_F57 + 0.04 Fn^4 (Prohaska's model, exact)."""
-    from fluids_props.water import fresh_water_si
-
     fn = np.linspace(0.1, 0.2, 11) if froude is None else np.asarray(froude)
     lm, sm = ship.model_length, ship.model_wetted_surface
     v = fn * np.sqrt(G * lm)
@@ -160,8 +162,6 @@ def test_prohaska_fit_recovers_a_known_form_factor_without_noise():
 
 
 def test_prohaska_fit_recovers_k_within_its_noise():
-    from similitude.prediction.uncertainty import prohaska_intercept_error
-
     for seed in (1, 2, 3):
         e = extrapolate(synthetic_runs(SHIP, 0.17, noise=0.002, seed=seed), SHIP)
         s_a = prohaska_intercept_error(e)
@@ -303,8 +303,6 @@ def test_notes_state_the_revision_and_the_caution():
 
 
 def test_workbook_is_not_overwritten_from_python_without_overwrite(tmp_path):
-    from similitude.report.atomic import OutputExistsError
-
     target = tmp_path / "r.xlsx"
     target.write_bytes(b"old")
     e = extrapolate(one_run(), SHIP, form_factor=0.15)

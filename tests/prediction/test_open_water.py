@@ -6,10 +6,12 @@ import math
 
 import numpy as np
 import pytest
+from openpyxl import load_workbook
 
 from similitude.errors import InputError
+from similitude.prediction.extrapolation import ShipParticulars, extrapolate
 from similitude.prediction.open_water import PropellerParticulars, chord_reynolds, scale_open_water
-from similitude.readers.measured import OpenWaterRuns
+from similitude.prediction.runs import OpenWaterRuns, ResistanceRuns
 
 PROP = PropellerParticulars(diameter=5.0, scale=20.0, pitch_diameter=1.0, chord_diameter=0.3,
                             blades=4, thickness_chord=0.04)
@@ -98,11 +100,6 @@ def test_propeller_text_missing_a_key_is_refused():
 
 
 def test_open_water_sheet_in_the_results_workbook(tmp_path):
-    from openpyxl import load_workbook
-
-    from similitude.prediction.extrapolation import ShipParticulars, extrapolate
-    from similitude.readers.measured import ResistanceRuns
-
     runs = ResistanceRuns(("A",), np.array([1.5]), np.array([30.0]), np.array([291.15]))
     e = extrapolate(runs, ShipParticulars(100.0, 2500.0, 20.0), form_factor=0.15)
     ow = scale_open_water(_runs(), PROP, reynolds_chord=5e5)

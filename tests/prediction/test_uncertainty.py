@@ -3,28 +3,28 @@
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 import pytest
 from scipy import stats
 
+from fluids_props.water import fresh_water_si
 from similitude.errors import InputError
 from similitude.prediction.extrapolation import ShipParticulars, extrapolate
+from similitude.prediction.runs import ResistanceRuns
 from similitude.prediction.uncertainty import (
     METHOD_STATEMENT,
     MeasurementUncertainty,
     prohaska_intercept_error,
     propagate,
 )
-from similitude.readers.measured import ResistanceRuns
 
 G = 9.80665
 SHIP = ShipParticulars(length=100.0, wetted_surface=2500.0, scale=25.0, transverse_area=250.0)
 
 
 def _runs(noise=0.002, seed=4):
-    from fluids_props.water import fresh_water_si
-
     fn = np.linspace(0.1, 0.3, 15)
     lm, sm = SHIP.model_length, SHIP.model_wetted_surface
     v = fn * math.sqrt(G * lm)
@@ -86,8 +86,6 @@ def test_no_uncertainty_in_gives_none_out():
 def test_perturbing_all_runs_at_once_equals_perturbing_one_run_alone():
     # With k fixed the runs do not interact, so one vectorised central difference gives each
     # run's own sensitivity (checked against perturbing run 3 alone, GUM eq. 10 by hand).
-    from dataclasses import replace
-
     runs = _runs()
     e = extrapolate(runs, SHIP, form_factor=0.2)
     t = propagate(e, MeasurementUncertainty(speed=0.003)).table

@@ -5,6 +5,8 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
 
 from similitude.errors import InputError
 from similitude.readers.measured import (
@@ -225,9 +227,6 @@ _GOOD_ROWS = ("run,model speed [m/s],total resistance [N],water temperature [deg
 def test_junk_cells_give_runs_or_one_input_error_per_problem():
     # Property-based (hypothesis): any cell replaced by junk text reads, or raises InputError
     # whose every line names a row or column; never another exception.
-    from hypothesis import HealthCheck, given, settings
-    from hypothesis import strategies as st
-
     junk = st.one_of(st.text(max_size=12), st.sampled_from(
         ["", "nan", "inf", "-1", "0", "1e400", "abc", "1,5", "R1", "2", "[m/s]", "speed"]))
 

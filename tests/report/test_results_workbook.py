@@ -6,10 +6,12 @@ from __future__ import annotations
 import numpy as np
 import openpyxl
 import pytest
+from scipy.stats import linregress
 
+from fluids_props.water import fresh_water_si
 from similitude.prediction.extrapolation import ShipParticulars, extrapolate
+from similitude.prediction.runs import ResistanceRuns
 from similitude.prediction.uncertainty import MeasurementUncertainty, propagate
-from similitude.readers.measured import ResistanceRuns
 from similitude.report import results_workbook
 
 G = 9.80665  # standard gravity, ISO 80000-3
@@ -18,8 +20,6 @@ SHIP = ShipParticulars(length=100.0, wetted_surface=2500.0, scale=25.0, transver
 
 def _noisy_runs(k=0.17, noise=0.004, seed=7):
     """An invented hull with C_TM = (1+k) C_F57 + 0.04 Fn^4 (Prohaska's model), with noise."""
-    from fluids_props.water import fresh_water_si
-
     fn = np.linspace(0.08, 0.30, 16)
     lm, sm = SHIP.model_length, SHIP.model_wetted_surface
     v = fn * np.sqrt(G * lm)
@@ -43,8 +43,6 @@ def _texts(ws) -> str:
 def test_prohaska_fit_report_matches_an_independent_least_squares_line(result):
     # Oracle: scipy.stats.linregress on Prohaska's coordinates (C_TM/C_FM against Fn^4/C_FM,
     # ITTC 7.5-02-03-01.4 Rev 04 2017) of the runs in the stated Froude range.
-    from scipy.stats import linregress
-
     pro = result.prohaska_frame()
     inside = pro["used in fit"].to_numpy()
     fn = pro["Froude number [-]"].to_numpy()

@@ -11,6 +11,7 @@ import math
 from dataclasses import dataclass, field
 
 from similitude.constants import P_ATM
+from similitude.correlations.friction import FRICTION_LINES
 from similitude.errors import InputError
 from similitude.planning.facilities import Facility
 
@@ -240,8 +241,6 @@ class MatchRequest:
             raise InputError(
                 "match.scale and match.model_length: both given; expected one of them"
             )
-        from similitude.correlations.friction import FRICTION_LINES
-
         if self.friction_line not in FRICTION_LINES:
             raise InputError(
                 f"match.friction_line: {self.friction_line!r} is unknown; expected one of "

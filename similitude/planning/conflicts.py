@@ -40,7 +40,10 @@ import math
 import numpy as np
 
 from similitude.constants import G0
+from similitude.correlations import blockage, friction
+from similitude.planning.candidates import Candidates, Problem, group_value, model_groups
 from similitude.planning.findings import Conflict
+from similitude.planning.limits import midship_area
 
 #: Propeller blade roughness of the ITTC-78 scale correction [m] [2].
 PROPELLER_ROUGHNESS = 30e-6
@@ -76,10 +79,8 @@ def viscous_scale_effect(re_model: float, re_ship: float, form_factor: float = 0
     C_TS = C_TM instead overestimates it by (1 + k)(C_FM - C_FS); relative to C_TS with no
     residuary resistance the error is (C_FM - C_FS)/C_FS, its upper bound.
     """
-    from similitude.correlations.friction import friction_coefficient
-
-    cfm = float(friction_coefficient(re_model, method=method))
-    cfs = float(friction_coefficient(re_ship, method=method))
+    cfm = float(friction.friction_coefficient(re_model, method=method))
+    cfs = float(friction.friction_coefficient(re_ship, method=method))
     one_k = 1.0 + form_factor
     corr = one_k * (cfm - cfs)
     return {
@@ -115,8 +116,6 @@ def prandtl_glauert(mach: float) -> float:
 
 
 def _reynolds(case, prob, c, gp, gm, i) -> Conflict:
-    from similitude.correlations import friction
-
     req = case.request
     proto = case.prototype
     ratio = gp / gm
@@ -144,8 +143,6 @@ def _reynolds(case, prob, c, gp, gm, i) -> Conflict:
     ve = viscous_scale_effect(gm, gp, k, method)
     details.update(ve)
     vp = float(np.asarray(proto.speeds)[i])
-    from similitude.planning.solver import model_groups
-
     re_lo = float(model_groups(prob, c, prob.lowest, ("reynolds",))["reynolds"][0])
     regime = friction.flow_regime(gm)
     details["model flow regime at this speed"] = regime
@@ -176,8 +173,6 @@ DRAG_CRISIS_BAND = (2.0e5, 5.0e5)
 def _reynolds_body(case, gp, gm, lm, details) -> Conflict:
     """Reynolds conflict of a wing, vehicle, building or bluff body (no friction-line
     extrapolation of a hull)."""
-    from similitude.correlations import friction
-
     ratio = gp / gm
     cfm = float(friction.friction_coefficient(gm, method="prandtl_schlichting"))
     cfp = float(friction.friction_coefficient(gp, method="prandtl_schlichting"))
@@ -245,13 +240,13 @@ def _generic(key, gp, gm, case, c) -> Conflict:
     return Conflict(key, gp, gm, text, details)
 
 
-def find_conflicts(prob, c, keys) -> tuple[Conflict, ...]:
+def find_conflicts(prob: Problem, c: Candidates, keys) -> tuple[Conflict, ...]:
     """Conflicts at the design speed of every group in ``keys`` the model does not match.
 
     Parameters
     ----------
-    prob : similitude.planning.solver.Problem
-    c : similitude.planning.solver.Candidates
+    prob : Problem
+    c : Candidates
         The solution as one candidate.
     keys : iterable of str
         Group keys to examine (exact groups are matched by construction and pass silently).
@@ -260,8 +255,6 @@ def find_conflicts(prob, c, keys) -> tuple[Conflict, ...]:
     -------
     tuple of Conflict
     """
-    from similitude.planning.solver import group_value, model_groups
-
     case = prob.case
     i = prob.design
     out = []
@@ -283,7 +276,7 @@ def find_conflicts(prob, c, keys) -> tuple[Conflict, ...]:
     return tuple(out)
 
 
-def blockage_notes(prob, c) -> tuple[str, ...]:
+def blockage_notes(prob: Problem, c: Candidates) -> tuple[str, ...]:
     """Blockage corrections the facility makes necessary, as notes with numbers.
 
     Towing tank: Schuster's speed correction [4]_ at the design speed with the model's
@@ -291,9 +284,6 @@ def blockage_notes(prob, c) -> tuple[str, ...]:
     in Barlow, Rae & Pope 1999) from the model volume and frontal area; the wake part needs the
     measured drag coefficient.
     """
-    from similitude.correlations import blockage
-    from similitude.planning.checks import midship_area
-
     case = prob.case
     fac, proto = case.facility, case.prototype
     lam = float(c.scale[0])

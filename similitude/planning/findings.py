@@ -89,7 +89,9 @@ def checks_table(checks):
     The one conversion of checks to a table; the workbook, the CSV output and the notebook
     view select and label its columns.
     """
-    import pandas as pd  # heavy; the checks themselves do not need it
+    # pandas on call only: the command line loads this module for every command (through
+    # commands/plan.py), and the checks themselves do not need it.
+    import pandas as pd
 
     rows = [(c.name, c.value, c.limit, c.unit, c.kind, c.status, c.margin, c.source, c.advice)
             for c in checks]

@@ -33,6 +33,7 @@ from __future__ import annotations
 import math
 
 import numpy as np
+import pandas as pd
 
 from similitude.constants import G0, KNOT
 from similitude.correlations import waves
@@ -169,8 +170,6 @@ def build_matrix(case, solution):
     .. [2] ITTC 7.5-02-07-02.1 (2014).
     .. [3] ITTC Symbols and Terminology (2017).
     """
-    import pandas as pd
-
     spec = case.matrix
     proto = case.prototype
     fac = case.facility

@@ -25,13 +25,30 @@ import html
 from dataclasses import asdict, dataclass, field, replace
 
 import numpy as np
+import pandas as pd
 
 from fluids_props import FluidState
 from similitude.constants import KNOT
+from similitude.correlations.friction import turbulence_stimulation_advice
+from similitude.dimensional import groups as group_catalogue
+from similitude.dimensional import scaling
+from similitude.errors import InputError
 from similitude.plain_data import plain
-from similitude.planning.case import Case, dimension_power
+from similitude.planning.candidates import (
+    Candidates,
+    Problem,
+    build_problem,
+    candidate_at,
+    group_value,
+    model_groups,
+)
+from similitude.planning.case import MATCHABLE_GROUPS, Case, dimension_power
+from similitude.planning.checks import facility_checks
+from similitude.planning.conflicts import blockage_notes, find_conflicts
 from similitude.planning.findings import Check, Conflict, checks_table
+from similitude.planning.matrix import build_matrix
 from similitude.planning.solution import Solution
+from similitude.planning.solver import DEFAULT_CANDIDATES, solve
 from similitude.units import format_scale
 
 
@@ -89,12 +106,15 @@ class Plan:
 
         Refuses to overwrite an existing file unless ``overwrite=True``.
         """
+        # A notebook convenience only: the report stage sits above planning, so it is imported
+        # on call (and the commands call the writer directly).
         from similitude.report.plan_workbook import write_plan
 
         return write_plan(self, path, overwrite=overwrite)
 
     def plot(self, kind: str = "groups", **kwargs):
         """Plot the plan (``similitude.report.plots.plot_plan``; matplotlib needed)."""
+        # A notebook convenience, like to_excel: report sits above planning; loads matplotlib.
         from similitude.report.plots import plot_plan
 
         return plot_plan(self, kind=kind, **kwargs)
@@ -221,9 +241,7 @@ def _state_dict(st: FluidState) -> dict:
     return d
 
 
-def _relevant_groups(prob) -> tuple[str, ...]:
-    from similitude.planning.case import MATCHABLE_GROUPS
-
+def _relevant_groups(prob: Problem) -> tuple[str, ...]:
     case = prob.case
     st = prob.proto.state
     keys = set(case.request.exact) | set(case.request.report) | {"reynolds"}
@@ -246,23 +264,15 @@ def _relevant_groups(prob) -> tuple[str, ...]:
     return tuple(k for k in MATCHABLE_GROUPS if k in keys)
 
 
-def _groups_table(prob, c, keys, requested_exact):
-    import pandas as pd
-
-    from similitude.dimensional import groups as group_catalogue
-    from similitude.planning.solver import group_value, model_groups
-
+def _groups_table(prob: Problem, c: Candidates, keys, requested_exact):
     rows = []
     exact = set(requested_exact)
     speeds = np.asarray(prob.case.prototype.speeds, dtype=float)
     pvals = {k: np.asarray(group_value(k, prob.proto, prob.propeller), dtype=float)
              for k in keys}
     for k in keys:
-        try:
-            g = group_catalogue.get(k)
-            name, symbol = g.name, g.symbol
-        except Exception:  # the catalogue names only what it knows
-            name, symbol = k.replace("_", " "), k
+        g = group_catalogue.get(k)  # every matchable group is catalogued
+        name, symbol = g.name, g.symbol
         for i, vp in enumerate(speeds):
             gp = float(np.ravel(pvals[k])[i]) if np.ndim(pvals[k]) else float(pvals[k])
             gm = float(model_groups(prob, c, i, (k,))[k][0])
@@ -281,8 +291,6 @@ def _groups_table(prob, c, keys, requested_exact):
 
 
 def _speeds_table(case: Case, solution: Solution):
-    import pandas as pd
-
     vp = np.asarray(case.prototype.speeds, dtype=float)
     data = {
         "prototype speed [m/s]": vp,
@@ -297,8 +305,6 @@ def _speeds_table(case: Case, solution: Solution):
 
 
 def _scale_factors(case, solution):
-    from similitude.dimensional import scaling
-
     rho_ratio = float(solution.prototype_fluid.density_si) / float(
         solution.model_fluid.density_si)
     if "froude" in solution.exact:
@@ -330,21 +336,14 @@ def plan(case: Case, n_candidates: int | None = None) -> Plan:
     InfeasibleError
         No model fits the facility; the message names the binding limit and by how much.
     """
-    from similitude.planning import solver
-    from similitude.planning.checks import facility_checks
-    from similitude.planning.conflicts import blockage_notes, find_conflicts
-    from similitude.planning.matrix import build_matrix
-
     if not isinstance(case, Case):
-        from similitude.errors import InputError
-
         raise InputError(f"case: got {type(case).__name__}; expected a similitude Case")
-    sol = solver.solve(case, n_candidates or solver.DEFAULT_CANDIDATES)
+    sol = solve(case, n_candidates or DEFAULT_CANDIDATES)
     # A relaxed solution was found for a request with its last exact group dropped.
     solved_case = replace(case, request=sol.extra["request"]) if "request" in sol.extra \
         else case
-    prob = solver.build_problem(solved_case)
-    c = solver.candidate_at(prob, sol)
+    prob = build_problem(solved_case)
+    c = candidate_at(prob, sol)
     proto = case.prototype
     lam = sol.scale
     dims = {"length": proto.length / lam}
@@ -396,8 +395,6 @@ def _temperature_notes(case: Case, sol: Solution) -> list[str]:
 
 
 def _notes(case: Case, sol: Solution, checks) -> list[str]:
-    from similitude.correlations.friction import turbulence_stimulation_advice
-
     out = []
     mf = sol.model_fluid
     out.append(

@@ -12,15 +12,15 @@ import math
 import pytest
 from scenarios import ship, tank
 
-from similitude.planning import conflicts, solver
+from similitude.planning import candidates, conflicts, solver
 from similitude.planning.case import Case, FluidSpec, MatchRequest, Prototype
 from similitude.planning.facilities import Facility
 
 
 def conflicts_of(case, keys=("reynolds", "weber", "mach", "cavitation")):
-    prob = solver.build_problem(case)
+    prob = candidates.build_problem(case)
     sol = solver.solve(case)
-    c = solver.candidate_at(prob, sol)
+    c = candidates.candidate_at(prob, sol)
     return {cf.group: cf for cf in conflicts.find_conflicts(prob, c, keys)}, sol
 
 
@@ -111,9 +111,9 @@ def test_low_model_reynolds_adds_stimulation_advice():
 
 
 def test_tank_blockage_note_uses_schuster():
-    prob = solver.build_problem(Case(ship(), tank(), MatchRequest(round_scale=False)))
+    prob = candidates.build_problem(Case(ship(), tank(), MatchRequest(round_scale=False)))
     sol = solver.solve(prob.case)
-    notes = conflicts.blockage_notes(prob, solver.candidate_at(prob, sol))
+    notes = conflicts.blockage_notes(prob, candidates.candidate_at(prob, sol))
     # Schuster: dV/V = m/(1 - m - Fh^2) + (2/3) Fh^10 (R_V/R_T = 0 upper bound); m = 0.005 at
     # the limiting scale, Fh = 0.2722 -> 0.005/0.9209 + 0.67 x 2.2e-6 = 0.543 %.
     fh = 10.0 * sol.velocity_ratio / math.sqrt(9.80665 * 4.0)
@@ -210,9 +210,9 @@ def test_closed_wind_tunnel_note_gives_the_thom_pope_solid_blockage():
     fac = Facility("wind_tunnel", "wt", 10.0, 4.0, 3.0, (5.0, 60.0), fluids=("air",),
                    temperature_range=(288.15, 288.15))
     case = Case(proto, fac, MatchRequest(exact=("mach",), report=(), scale=10.0))
-    prob = solver.build_problem(case)
+    prob = candidates.build_problem(case)
     sol = solver.solve(case)
-    notes = conflicts.blockage_notes(prob, solver.candidate_at(prob, sol))
+    notes = conflicts.blockage_notes(prob, candidates.candidate_at(prob, sol))
     eps = (blockage.DEFAULT_BODY_SHAPE_FACTOR * blockage.DEFAULT_TUNNEL_SHAPE_FACTOR
            * 40.0 / 1000.0 / 12.0**1.5)
     assert f"solid blockage dV/V = {eps * 100:.3g} %" in notes[0]
@@ -225,7 +225,7 @@ def test_open_jet_tunnel_note_says_closed_section_corrections_do_not_apply():
     fac = Facility("wind_tunnel", "jet", 10.0, 4.0, 3.0, (5.0, 60.0), fluids=("air",),
                    temperature_range=(288.15, 288.15), open_jet=True)
     case = Case(proto, fac, MatchRequest(exact=("mach",), report=(), scale=10.0))
-    prob = solver.build_problem(case)
+    prob = candidates.build_problem(case)
     sol = solver.solve(case)
-    notes = conflicts.blockage_notes(prob, solver.candidate_at(prob, sol))
+    notes = conflicts.blockage_notes(prob, candidates.candidate_at(prob, sol))
     assert "Open-jet" in notes[0] and "do not apply" in notes[0]

@@ -16,7 +16,7 @@ from hypothesis import strategies as st
 from scenarios import ship, tank
 
 from similitude.errors import InfeasibleError, InputError
-from similitude.planning import solver
+from similitude.planning import candidates, solver
 from similitude.planning.case import Case, FluidSpec, MatchRequest, Prototype
 from similitude.planning.facilities import Facility
 
@@ -44,8 +44,8 @@ def test_largest_model_is_rounded_up_to_a_convenient_scale_that_keeps_every_limi
     assert sol.extra["limiting_scale"] == pytest.approx(math.sqrt(190.0 / 0.16), rel=1e-9)
     assert "blockage" in sol.extra["limiting_binding"]
     assert "rounded up" in sol.extra["scale_rounding"] and "1:35" in sol.binding
-    prob = solver.build_problem(Case(ship(), tank()))
-    _, vmat, _ = solver.violations(prob, solver.candidate_at(prob, sol))
+    prob = candidates.build_problem(Case(ship(), tank()))
+    _, vmat, _ = candidates.violations(prob, candidates.candidate_at(prob, sol))
     assert vmat.max() <= 0
 
 
@@ -284,29 +284,6 @@ def test_cavitation_tunnel_minimum_pressure_binds_for_a_high_sigma_target():
     assert sol.model_pressure <= 2e5
 
 
-# --- property: Froude and Reynolds --------------------------------------------------------
-@settings(max_examples=40, deadline=None)
-@given(length=st.floats(20.0, 300.0), speed=st.floats(1.0, 15.0), lam=st.floats(5.0, 80.0),
-       t_p=st.floats(275.0, 305.0))
-def test_froude_scaled_reynolds_ratio_is_lambda_to_1_5_times_viscosity_ratio(length, speed,
-                                                                             lam, t_p):
-    # Re_p/Re_m = (V_p L_p / nu_p) / (V_p lambda^-0.5 L_p lambda^-1 / nu_m)
-    #           = lambda^1.5 nu_m/nu_p, so Fr and Re together need nu_m/nu_p = lambda^-1.5.
-    proto = Prototype("surface_ship", length, (speed,), FluidSpec("sea_water", t_p))
-    fac = Facility("towing_tank", "big", 10000.0, 1000.0, 100.0, (0.01, 100.0))
-    case = Case(proto, fac, MatchRequest(scale=lam))
-    prob = solver.build_problem(case)
-    sol = solver.solve(case, n_candidates=64)
-    c = solver.candidate_at(prob, sol)
-    re_m = float(solver.model_groups(prob, c, 0, ("reynolds",))["reynolds"][0])
-    re_p = float(prob.proto_groups["reynolds"][0])
-    nu_ratio = float(sol.model_fluid.kinematic_viscosity_si) / float(
-        sol.prototype_fluid.kinematic_viscosity_si)
-    assert re_p / re_m == pytest.approx(lam**1.5 * nu_ratio, rel=1e-12)
-    assert (re_p / re_m == pytest.approx(1.0, rel=1e-9)) == (
-        nu_ratio == pytest.approx(lam**-1.5, rel=1e-9))
-
-
 # --- vectorised search ----------------------------------------------------------------------
 def test_search_grid_evaluates_at_least_1e5_candidates_in_one_pass():
     res = solver.search_grid(Case(ship(), tank()), 100_000)
@@ -391,27 +368,15 @@ def test_largest_model_is_admissible_and_a_slightly_larger_one_is_not(length, sp
                                   "midship_area": length**2 / 125})
     fac = Facility("towing_tank", "t", 30 * width, width, depth, (0.05, vmax))
     case = Case(proto, fac, MatchRequest(round_scale=False))
-    prob = solver.build_problem(case)
+    prob = candidates.build_problem(case)
     sol = solver.solve(case, n_candidates=4000)
-    c = solver.candidate_at(prob, sol)
-    _, vmat, _ = solver.violations(prob, c)
+    c = candidates.candidate_at(prob, sol)
+    _, vmat, _ = candidates.violations(prob, c)
     assert vmat.max() <= 1e-12
-    bigger = solver.evaluate(prob, prob.options[0], c.temperature, c.pressure,
+    bigger = candidates.evaluate(prob, prob.options[0], c.temperature, c.pressure,
                              c.scale * (1 - 1e-6))
-    _, vmat2, _ = solver.violations(prob, bigger)
+    _, vmat2, _ = candidates.violations(prob, bigger)
     assert vmat2.max() > 0
-
-
-def test_fluid_states_outside_the_gas_phase_drop_out_of_the_search():
-    # R-134a boils at about 247 K at 1 atm (ASHRAE Handbook, Fundamentals): at 230 K and
-    # 1 bar the gas model refuses the state, which gets NaN properties, while 300 K is kept.
-    from fluids_props import OutOfRangeError, get_fluid
-
-    info = get_fluid("coolprop:r134a")
-    st = solver.model_state(info, np.array([230.0, 300.0]), np.array([1e5, 1e5]))
-    assert np.isnan(st.density_si[0]) and np.isfinite(st.density_si[1])
-    with pytest.raises(OutOfRangeError, match="liquid"):
-        solver.model_state(info, 230.0, 1e5)
 
 
 # --- depressurised towing tank: Froude and cavitation number together -----------------------

@@ -1,0 +1,369 @@
+"""Hard limits of a facility: the bounds the solver searches within.
+
+Each :class:`Limit` is evaluated over arrays of candidate models and bounds the admissible ones
+in the solver (:mod:`similitude.planning.solver`); at the chosen model it appears in the plan
+as a check with status ``"ok"`` or ``"fail"`` (:mod:`similitude.planning.checks` adds the regime
+checks). The limits (:func:`hard_limits`): carriage, fan or flow speed range, model size limits
+of the facility, tank width against the Kelvin wedge, blockage ratio, depth Froude number and
+tank depth against draught (deep-water prototypes), tunnel blockage and span, propeller size in
+a tunnel, dynamometer rotation rate, steady-run length when the facility states a minimum
+steady time, and the wavemaker's period range and largest wave for the wave conditions of the
+run matrix (:func:`wavemaker_limits`).
+
+Each limit carries its value, limit and source. Where no published number was at hand the
+source says "common practice", and values recalled from memory say so.
+
+References
+----------
+.. [1] Kelvin, Lord (W. Thomson), "On ship waves", Proc. Inst. Mech. Eng. 38 (1887) 409-434
+       (the wave pattern of a moving point disturbance in deep water is confined to a wedge of
+       half-angle arcsin(1/3) = 19.47 deg).
+.. [2] ITTC, Recommended Procedures and Guidelines 7.5-04-01-01.1, "Preparation, Conduct and
+       Analysis of Speed/Power Trials", 2017 (deep water when h > 3 sqrt(B T_M) and
+       h > 2.75 V^2/g), and ISO 15016:2015 (same criterion); from memory, high confidence.
+.. [3] IMO MSC.1/Circ.1200, "Interim guidelines for alternative assessment of the weather
+       criterion", 2006, §3.2.1 (wind-tunnel model: projected area below 5 % of the test
+       section area).
+.. [4] Barlow, J. B., Rae, W. H. and Pope, A., "Low-Speed Wind Tunnel Testing", 3rd ed.,
+       Wiley, 1999 (frontal area up to about 7.5 % of the test section, span up to 0.8 of its
+       width); from memory, medium confidence.
+.. [5] Longuet-Higgins, M. S., "On the statistical distribution of the heights of sea waves",
+       J. Marine Research 11 (1952) 245-266 (Rayleigh heights: the most probable largest of N
+       waves is H_s sqrt(ln N / 2), 1.86 H_s for N = 1000).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from similitude.constants import G0
+from similitude.correlations.waves import wave_length, wave_period
+from similitude.planning.case import dimension_power
+from similitude.planning.findings import Check
+
+#: Kelvin wedge half-angle arcsin(1/3) [rad] [1].
+KELVIN_HALF_ANGLE = math.asin(1.0 / 3.0)
+
+#: Tank width over model length below which the bow waves meet the walls within one model
+#: length: 2 tan(19.47 deg) = 0.707 [-] (derived from [1]).
+KELVIN_WIDTH_RATIO = 2.0 * math.tan(KELVIN_HALF_ANGLE)
+
+#: Largest blockage ratio A_X/(B_T h) at which blockage is usually left uncorrected [-]
+#: (common practice; no ITTC number retrieved).
+TANK_BLOCKAGE_LIMIT = 0.005
+
+#: Largest depth Froude number of "deep water": h > 2.75 V^2/g, i.e. Fh < 1/sqrt(2.75) [2].
+DEEP_WATER_DEPTH_FROUDE = 1.0 / math.sqrt(2.75)
+
+#: Deep-water depth criterion h > 3 sqrt(B T) [2].
+DEEP_WATER_DRAUGHT_FACTOR = 3.0
+
+#: Wind-tunnel blockage limits [-]: IMO weather-criterion tests [3], general practice [4].
+IMO_TUNNEL_BLOCKAGE = 0.05
+BARLOW_TUNNEL_BLOCKAGE = 0.075
+
+#: Largest wing span over test-section width [-] [4].
+BARLOW_SPAN_RATIO = 0.8
+
+#: Largest propeller diameter over the smaller test-section side [-] (common practice, from
+#: memory: keeps the wall effect on the propeller small; no source at hand).
+PROPELLER_TUNNEL_DIAMETER_RATIO = 0.5
+
+#: Largest over significant wave height in a long irregular record (N = 1000) [-] [5].
+MAX_OVER_SIGNIFICANT_HEIGHT = math.sqrt(math.log(1000.0) / 2.0)
+
+
+@dataclass(frozen=True)
+class Limit:
+    """A hard limit evaluated over candidate models (arrays).
+
+    Attributes
+    ----------
+    name : str
+        What is limited, in words.
+    value : ndarray
+        The model's value in ``unit``.
+    limit : float or ndarray
+    kind : str
+        ``"max"`` or ``"min"``.
+    unit : str
+    source : str
+    limit_words : str
+        The limit in words for messages, e.g. "carriage maximum".
+    advice : str
+    """
+
+    name: str
+    value: object
+    limit: object
+    kind: str
+    unit: str
+    source: str
+    limit_words: str
+    advice: str = ""
+
+    def violation(self):
+        """Relative violation: positive when the limit is exceeded, negative inside."""
+        v = np.asarray(self.value, dtype=float)
+        lim = np.asarray(self.limit, dtype=float)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            out = v / lim - 1.0 if self.kind == "max" else 1.0 - v / lim
+        return np.where(np.isfinite(out), out, np.where(np.isnan(v), 0.0, np.inf))
+
+    def describe(self, j: int, where: str) -> str:
+        """One line naming this limit at candidate ``j`` and by how much it is violated."""
+        v = float(np.ravel(self.value)[j])
+        lim = float(np.ravel(np.broadcast_to(self.limit, np.shape(self.value)))[j]) \
+            if np.ndim(self.limit) else float(self.limit)
+        verb = "exceeds" if self.kind == "max" else "is below"
+        excess = (v / lim - 1.0) if self.kind == "max" else (1.0 - v / lim)
+        unit = f" {self.unit}" if self.unit else ""
+        return (f"{self.name} {v:.4g}{unit} {where} {verb} the {self.limit_words} "
+                f"{lim:.4g}{unit} by {abs(excess) * 100:.3g} %")
+
+    def check(self, j: int = 0) -> Check:
+        """The limit at candidate ``j`` as a :class:`Check`."""
+        v = float(np.ravel(self.value)[j])
+        lim = float(np.ravel(np.broadcast_to(self.limit, np.shape(self.value)))[j]) \
+            if np.ndim(self.limit) else float(self.limit)
+        bad = float(np.ravel(self.violation())[j]) > 1e-9
+        return Check(self.name, v, lim, self.unit, self.kind, "fail" if bad else "ok",
+                     self.source, self.advice if bad else "")
+
+
+def _dim(case, key, scale):
+    v = case.prototype.dimension(key)
+    if v is None:
+        return None
+    return v / np.asarray(scale, dtype=float) ** dimension_power(key)
+
+
+def _speed_words(fac) -> str:
+    if fac.free_surface:
+        return "carriage"
+    return "fan" if fac.kind == "wind_tunnel" else "tunnel"
+
+
+def hard_limits(prob, c) -> list[Limit]:
+    """The facility's hard limits over candidates ``c`` (see the module docstring).
+
+    Parameters
+    ----------
+    prob : similitude.planning.candidates.Problem
+    c : similitude.planning.candidates.Candidates
+
+    Returns
+    -------
+    list of Limit
+        Value arrays of the candidates' shape.
+    """
+    case = prob.case
+    fac, proto = case.facility, case.prototype
+    lam = np.asarray(c.scale, dtype=float)
+    lm = proto.length / lam
+    vp = np.asarray(proto.speeds, dtype=float)
+    v_hi = vp[prob.design] * c.velocity_ratio
+    v_lo = vp[prob.lowest] * c.velocity_ratio
+    out: list[Limit] = []
+    word = _speed_words(fac)
+    label = f"{prob.speed_group} speed" if prob.speed_group else "model speed"
+    label = label[0].upper() + label[1:]
+    out.append(Limit(f"{label} at the highest prototype speed", v_hi, fac.speed_range[1],
+                     "max", "m/s", "facility data", f"{word} maximum",
+                     "use a smaller model or a faster facility"))
+    if fac.speed_range[0] > 0:
+        out.append(Limit(f"{label} at the lowest prototype speed", v_lo, fac.speed_range[0],
+                         "min", "m/s", "facility data", f"{word} minimum",
+                         "use a larger model or drop the lowest speed"))
+    if fac.max_model_length is not None:
+        out.append(Limit("model length", lm, fac.max_model_length, "max", "m",
+                         "facility data", "facility's largest model"))
+    if fac.min_model_length is not None:
+        out.append(Limit("model length", lm, fac.min_model_length, "min", "m",
+                         "facility data", "facility's smallest model"))
+    if proto.rotation_rates and fac.max_rotation_rate is not None:
+        n_hi = float(np.max(proto.rotation_rates)) * c.velocity_ratio * lam
+        out.append(Limit("model rotation rate", n_hi, fac.max_rotation_rate, "max", "1/s",
+                         "facility data", "dynamometer maximum",
+                         "use a smaller propeller model or a lower speed"))
+    if fac.free_surface:
+        out.extend(_free_surface_limits(prob, c, lam, lm, v_hi))
+        out.extend(wavemaker_limits(case, lam))
+    else:
+        out.extend(_tunnel_limits(prob, c, lam, lm))
+    if fac.acceleration is not None and fac.min_steady_time is not None:
+        steady = steady_run_length(fac, lm, v_hi)
+        out.append(Limit("steady-run length at the highest speed", steady,
+                         v_hi * fac.min_steady_time, "min", "m", "facility data",
+                         f"distance for the stated {fac.min_steady_time:g} s steady time",
+                         "use a smaller model (lower Froude speed) or accept a shorter run"))
+    return out
+
+
+def steady_run_length(fac, model_length, speed):
+    """Steady-speed distance left after accelerating and stopping [m].
+
+    s = L_tank - V^2/(2 a) - V^2/(2 d) - L_m, with acceleration a and deceleration d [m/s^2]
+    of the carriage (uniform acceleration; kinematics).
+    """
+    a = fac.acceleration
+    d = fac.deceleration if fac.deceleration is not None else a
+    v = np.asarray(speed, dtype=float)
+    return fac.length - v**2 / (2 * a) - v**2 / (2 * d) - np.asarray(model_length)
+
+
+def midship_area(case, scale):
+    """Model midship section area A_X [m^2]: given, or beam x draught (an upper bound)."""
+    ax = _dim(case, "midship_area", scale)
+    if ax is not None:
+        return ax, "given"
+    b, t = _dim(case, "beam", scale), _dim(case, "draught", scale)
+    if b is not None and t is not None:
+        return b * t, "estimated as beam x draught (midship coefficient 1, an upper bound)"
+    return None, ""
+
+
+def _free_surface_limits(prob, c, lam, lm, v_hi) -> list[Limit]:
+    case = prob.case
+    fac, proto = case.facility, case.prototype
+    out = [Limit("model length vs tank width (Kelvin wedge)", lm,
+                 fac.width / KELVIN_WIDTH_RATIO, "max", "m",
+                 "Kelvin wedge 19.47 deg (Kelvin 1887): bow waves reach the tank walls within "
+                 "one model length when B_T < 2 L tan 19.47 deg = 0.71 L (derived)",
+                 "Kelvin-wedge length B_T/0.71",
+                 "use a smaller model so that wall reflections pass astern of it")]
+    ax, how = midship_area(case, lam)
+    if ax is not None and proto.kind in ("surface_ship", "submerged_body", "offshore_structure"):
+        m = ax / fac.cross_section
+        out.append(Limit("blockage ratio A_X/(B_T h)", m, TANK_BLOCKAGE_LIMIT, "max", "",
+                         "common practice (A_X " + how + ")", "usual uncorrected limit",
+                         "use a smaller model, or correct for blockage (Schuster; ITTC "
+                         "7.5-02-02-01 §3.6.3)"))
+    if proto.water_depth is None and "depth_froude" not in case.request.exact:
+        fh = v_hi / math.sqrt(G0 * fac.depth)
+        out.append(Limit("depth Froude number V_m/sqrt(g h)", fh, DEEP_WATER_DEPTH_FROUDE,
+                         "max", "",
+                         "ITTC 7.5-04-01-01.1 (2017) / ISO 15016:2015 deep-water criterion "
+                         "h > 2.75 V^2/g (from memory)", "deep-water limit",
+                         "use a smaller model: the tank bottom would raise resistance and "
+                         "sinkage"))
+        b, t = _dim(case, "beam", lam), _dim(case, "draught", lam)
+        if b is not None and t is not None:
+            need = DEEP_WATER_DRAUGHT_FACTOR * np.sqrt(b * t)
+            out.append(Limit("tank depth needed 3 sqrt(B_m T_m)", need, fac.depth, "max", "m",
+                             "ITTC 7.5-04-01-01.1 (2017) / ISO 15016:2015 deep-water "
+                             "criterion h > 3 sqrt(B T) (from memory)", "tank depth",
+                             "use a smaller model"))
+    return out
+
+
+def _tunnel_limits(prob, c, lam, lm) -> list[Limit]:
+    case = prob.case
+    fac, proto = case.facility, case.prototype
+    out = [Limit("model length vs test-section length", lm, fac.length, "max", "m",
+                 "facility data",
+                 "test-section length")]
+    if proto.kind == "propeller":
+        d = proto.dimension("diameter", proto.length) / lam
+        out.append(Limit("propeller diameter", d,
+                         PROPELLER_TUNNEL_DIAMETER_RATIO * min(fac.width, fac.depth), "max", "m",
+                         "common practice (from memory)",
+                         f"{PROPELLER_TUNNEL_DIAMETER_RATIO:g} x smaller test-section side",
+                         "use a smaller propeller model"))
+        return out
+    ship_like = proto.kind in ("surface_ship", "offshore_structure")
+    area_key = "lateral_area" if ship_like and proto.dimension("lateral_area") else \
+        "frontal_area"
+    area = _dim(case, area_key, lam)
+    if area is not None and fac.kind == "wind_tunnel":
+        if ship_like:
+            lim, src = IMO_TUNNEL_BLOCKAGE, "IMO MSC.1/Circ.1200 (2006) §3.2.1"
+        else:
+            lim, src = BARLOW_TUNNEL_BLOCKAGE, "Barlow, Rae & Pope (1999), from memory"
+        out.append(Limit(f"tunnel blockage {area_key.replace('_', ' ')}/test section", area /
+                         fac.cross_section, lim, "max", "", src, "blockage limit",
+                         "use a smaller model"))
+    span = _dim(case, "span", lam)
+    if span is not None:
+        out.append(Limit("span over test-section width", span / fac.width, BARLOW_SPAN_RATIO,
+                         "max", "", "Barlow, Rae & Pope (1999), from memory",
+                         "span limit", "use a smaller model"))
+    return out
+
+
+
+def full_scale_waves(case):
+    """(label, kind, period [s] or None, height [m] or None) of each wave condition at full
+    scale; regular waves given by length ratio or steepness are converted by linear
+    dispersion at the prototype water depth."""
+    proto = case.prototype
+    out = []
+    for i, w in enumerate(case.matrix.waves):
+        label = w.name or f"wave {i + 1}"
+        if w.kind == "regular":
+            period = w.period
+            if period is None and w.length_ratio is not None:
+                period = float(wave_period(w.length_ratio * proto.length, proto.water_depth))
+            height = w.height
+            if height is None and w.steepness is not None and period is not None:
+                height = w.steepness * float(wave_length(period, proto.water_depth))
+        else:
+            period, height = w.peak_period, w.significant_height
+        out.append((label, w.kind, period, height))
+    return out
+
+
+def wavemaker_limits(case, scale) -> list[Limit]:
+    """Wavemaker period range and largest wave height as hard limits over scales ``scale``.
+
+    Froude scaling of the waves: T_m = T_p / sqrt(lambda), H_m = H_p / lambda; an irregular
+    sea must reach its largest wave, 1.86 H_s for N = 1000 Rayleigh-distributed heights
+    (Longuet-Higgins 1952) [5]_. The limits are the facility's data.
+    """
+    fac = case.facility
+    out: list[Limit] = []
+    if not fac.free_surface or not case.matrix.waves:
+        return out
+    lam = np.asarray(scale, dtype=float)
+    for label, kind, period, height in full_scale_waves(case):
+        if period is not None and fac.wavemaker_period_range is not None:
+            tm = period / np.sqrt(lam)
+            lo, hi = fac.wavemaker_period_range
+            out.append(Limit(f"{label}: model period vs wavemaker minimum", tm, lo, "min", "s",
+                             "facility data", "wavemaker's shortest period",
+                             "the wavemaker cannot make it; use a larger model"))
+            out.append(Limit(f"{label}: model period vs wavemaker maximum", tm, hi, "max", "s",
+                             "facility data", "wavemaker's longest period",
+                             "the wavemaker cannot make it; use a smaller model"))
+        if fac.wavemaker_max_height is not None and height is not None:
+            factor = 1.0 if kind == "regular" else MAX_OVER_SIGNIFICANT_HEIGHT
+            what = "model wave height" if kind == "regular" else \
+                "largest model wave 1.86 H_s (Longuet-Higgins 1952, N = 1000)"
+            out.append(Limit(f"{label}: {what}", height * factor / lam,
+                             fac.wavemaker_max_height, "max", "m", "facility data",
+                             "wavemaker's highest wave",
+                             "the wavemaker cannot make it; use a smaller model"))
+    return out
+
+
+__all__ = [
+    "BARLOW_SPAN_RATIO",
+    "BARLOW_TUNNEL_BLOCKAGE",
+    "DEEP_WATER_DEPTH_FROUDE",
+    "DEEP_WATER_DRAUGHT_FACTOR",
+    "IMO_TUNNEL_BLOCKAGE",
+    "KELVIN_HALF_ANGLE",
+    "KELVIN_WIDTH_RATIO",
+    "MAX_OVER_SIGNIFICANT_HEIGHT",
+    "PROPELLER_TUNNEL_DIAMETER_RATIO",
+    "TANK_BLOCKAGE_LIMIT",
+    "Limit",
+    "full_scale_waves",
+    "hard_limits",
+    "midship_area",
+    "steady_run_length",
+    "wavemaker_limits",
+]

@@ -684,10 +684,11 @@ def violations(prob: Problem, c: Candidates):
 
 def candidate_at(prob: Problem, solution: Solution) -> Candidates:
     """The solution as a single :class:`Candidates` (for checks and conflicts)."""
-    name = solution.extra.get("fluid", solution.model_fluid.fluid)
+    name = solution.fluid_name or solution.model_fluid.fluid
     opt = next((o for o in prob.options if o.name == name), prob.options[0])
     T = float(solution.model_fluid.temperature_si)
-    p = float(solution.extra.get("static_pressure", solution.model_fluid.pressure_si))
+    p = float(solution.static_pressure if solution.static_pressure is not None
+              else solution.model_fluid.pressure_si)
     V = None
     if prob.speed_group is None:
         V = solution.velocity_ratio * float(np.asarray(prob.proto.speed)[prob.design])

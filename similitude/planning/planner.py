@@ -22,7 +22,7 @@ References
 from __future__ import annotations
 
 import html
-from dataclasses import asdict, dataclass, field, replace
+from dataclasses import asdict, dataclass, replace
 
 import numpy as np
 import pandas as pd
@@ -54,32 +54,55 @@ from similitude.units import format_scale
 
 @dataclass(frozen=True)
 class Plan:
-    """A solved test plan (SI floats; DataFrames with units in headers).
+    """A solved test plan: the result of :func:`plan` (SI floats; DataFrames with units in
+    their column headers).
 
     Attributes
     ----------
     case : Case
+        The case as given (prototype, facility, request, run-matrix specification).
     solution : Solution
+        The solver's answer: scale, velocity and rotation ratios, fluids, the pressure the
+        facility is set to, how the exact groups were met, and the limiting scale before
+        rounding (``solution.limiting_scale``) or the groups relaxed (``solution.relaxed``).
     scale : float
-        lambda = L_p / L_m [-].
+        lambda = L_p / L_m [-] (written "1:lambda").
     model_length : float
-        Model reference length [m].
-    model_dimensions : dict
-        Model lengths [m], areas [m^2], volumes [m^3] by the keys of
-        ``Prototype.dimensions``, plus ``"length"``.
+        Model reference length L_p / lambda [m].
+    model_dimensions : dict of str to float
+        Model lengths [m], areas [m^2] and volumes [m^3] by the keys of
+        ``Prototype.dimensions`` (scaled by lambda, lambda^2, lambda^3), plus ``"length"``.
     prototype_fluid, model_fluid : FluidState
-        Scalar states.
+        The fluids at their states (scalars): density, viscosities and, where they apply,
+        vapour pressure, surface tension and speed of sound.
     speeds : pandas.DataFrame
-        One row per prototype operating speed.
+        One row per prototype operating speed: ``prototype speed [m/s]``, ``prototype speed
+        [kn]``, ``model speed [m/s]``, and for a propeller the prototype and model rotation
+        rates [1/s].
     groups : pandas.DataFrame
-        One row per (group, prototype speed).
+        One row per (group, prototype speed): ``group``, ``symbol``, ``key``, ``prototype
+        speed [m/s]``, ``prototype value``, ``model value``, ``ratio`` (prototype/model),
+        ``matched`` (within 1e-6), ``requested`` ("exact" or "report").
     conflicts : tuple of Conflict
-        Unmatched groups at the design (highest) speed.
+        The groups the model does not match, at the design (highest) speed, each with its
+        prototype and model values, ratio and consequence in the trade's terms.
     checks : tuple of Check
+        Facility and regime checks of the chosen model: value, limit, status ("ok",
+        "warning", "fail"), margin and source (``checks_table`` gives them as a DataFrame).
     scale_factors : pandas.DataFrame
+        Factor prototype/model of the usual quantities (force, power, time, ...):
+        ``quantity``, ``dimension``, ``factor (prototype/model)``, ``expression``, ``unit``,
+        ``example``.
     matrix : pandas.DataFrame
+        The run matrix, one row per run (:func:`similitude.planning.matrix.build_matrix`):
+        model and prototype values, timing and facility time, units in the headers;
+        ``matrix.attrs["notes"]`` lists the defaults assumed.
     notes : tuple of str
+        The planner's notes: how the fluid, temperature and scale were chosen, relaxed groups,
+        turbulence stimulation, blockage corrections, failed checks.
     binding_constraint : str
+        What fixed the scale, in words (e.g. the blockage limit, and the rounding to a
+        convenient scale).
     """
 
     case: Case
@@ -97,7 +120,13 @@ class Plan:
     matrix: object
     notes: tuple[str, ...] = ()
     binding_constraint: str = ""
-    extra: dict = field(default_factory=dict)
+
+    @property
+    def limiting_scale(self) -> float:
+        """The scale at the binding facility limit before rounding to a convenient one [-]
+        (``scale`` itself when it was not rounded or was fixed by the case)."""
+        lam0 = self.solution.limiting_scale
+        return self.scale if lam0 is None else lam0
 
     # -- outputs -----------------------------------------------------------------------------
     def to_excel(self, path, overwrite: bool = False):
@@ -144,7 +173,7 @@ class Plan:
             "facility": self.case.facility.name,
             "scale": self.scale,
             "scale_text": format_scale(self.scale),
-            "limiting_scale": plain(sol.extra.get("limiting_scale", self.scale)),
+            "limiting_scale": plain(self.limiting_scale),
             "model_length [m]": self.model_length,
             "model_dimensions": {k: plain(v) for k, v in self.model_dimensions.items()},
             "prototype_fluid": _state_dict(self.prototype_fluid),
@@ -170,15 +199,16 @@ class Plan:
         c = self.case
         mf = self.model_fluid
         t = float(mf.temperature_si)
-        p = self.solution.extra.get("static_pressure", float(mf.pressure_si))
+        p = self.solution.static_pressure
+        if p is None:
+            p = float(mf.pressure_si)
         tp = float(self.prototype_fluid.temperature_si)
         return [
             f"Plan '{c.name}': {c.prototype.name} ({c.prototype.kind}, L = "
             f"{c.prototype.length:.4g} m) in {c.facility.name} ({c.facility.kind})",
             f"  scale {format_scale(self.scale)}; model length {self.model_length:.4g} m"
-            + (f" (limiting scale {format_scale(self.solution.extra['limiting_scale'], 6)})"
-               if self.solution.extra.get("limiting_scale", self.scale) != self.scale
-               else ""),
+            + (f" (limiting scale {format_scale(self.limiting_scale, 6)})"
+               if self.limiting_scale != self.scale else ""),
             f"  model fluid {mf.fluid} at {t - 273.15:.2f} degC, {p / 1000:.6g} kPa "
             f"(nu = {float(mf.kinematic_viscosity_si):.4g} m^2/s); prototype "
             f"{self.prototype_fluid.fluid} at {tp - 273.15:.2f} degC",
@@ -190,7 +220,7 @@ class Plan:
         lines.append("  speeds:")
         for row in self.speeds.to_dict(orient="records"):
             lines.append("    " + ", ".join(f"{k} {_fmt(v)}" for k, v in row.items()))
-        for group, _ in self.solution.extra.get("relaxed", ()):
+        for group, _ in self.solution.relaxed:
             lines.append(f"  relaxed: {group} was requested exact but is not attainable here; "
                          "its mismatch is minimised (see notes)")
         if self.conflicts:
@@ -340,8 +370,8 @@ def plan(case: Case, n_candidates: int | None = None) -> Plan:
         raise InputError(f"case: got {type(case).__name__}; expected a similitude Case")
     sol = solve(case, n_candidates or DEFAULT_CANDIDATES)
     # A relaxed solution was found for a request with its last exact group dropped.
-    solved_case = replace(case, request=sol.extra["request"]) if "request" in sol.extra \
-        else case
+    solved_case = case if sol.solved_request is None else replace(
+        case, request=sol.solved_request)
     prob = build_problem(solved_case)
     c = candidate_at(prob, sol)
     proto = case.prototype
@@ -383,7 +413,7 @@ def _temperature_notes(case: Case, sol: Solution) -> list[str]:
                 f"{workbook}."]
     if not fac.free_surface:
         return []
-    solved = sol.extra.get("request", case.request)
+    solved = case.request if sol.solved_request is None else sol.solved_request
     reported = ", ".join(solved.report) or "reynolds"
     return [
         f"Model water temperature {t:.2f} degC was chosen within the facility range "
@@ -403,15 +433,15 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
     )
     out.append("Exact groups (" + ", ".join(sol.exact) + ") hold to 1e-9 relative at every "
                "prototype speed; all values are SI.")
-    if sol.extra.get("solved_by"):
-        out.append(f"The second exact group is met through the {sol.extra['solved_by']}.")
-    rounding = sol.extra.get("scale_rounding")
+    if sol.solved_by:
+        out.append(f"The second exact group is met through the {sol.solved_by}.")
+    rounding = sol.scale_rounding
     if rounding:
-        lam0 = sol.extra["limiting_scale"]
+        lam0 = sol.limiting_scale
         if rounding.startswith("rounded"):
             out.append(
                 f"Scale {rounding}: the facility limits allow {format_scale(lam0, 6)} "
-                f"({sol.extra['limiting_binding']}); every limit still holds at "
+                f"({sol.limiting_binding}); every limit still holds at "
                 f"{format_scale(sol.scale, 6)} (switch off with round_scale = false)."
             )
         else:
@@ -419,7 +449,7 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
     out.extend(_temperature_notes(case, sol))
     if case.prototype.kind in ("surface_ship", "submerged_body") and case.facility.free_surface:
         out.append(turbulence_stimulation_advice(case.prototype.length / sol.scale))
-    for group, reason in sol.extra.get("relaxed", ()):
+    for group, reason in sol.relaxed:
         out.append(f"Requested exact group '{group}' cannot be met inside the facility, so it "
                    f"is minimised instead while the others stay exact. Reason: {reason}")
     fails = [c for c in checks if c.status == "fail"]

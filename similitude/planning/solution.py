@@ -2,11 +2,12 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
 import numpy as np
 
 from fluids_props import FluidState
+from similitude.planning.case import MatchRequest
 
 
 @dataclass(frozen=True)
@@ -28,8 +29,7 @@ class Solution:
     model_pressure : float or None
         Static pressure at the model reference point [Pa] when the facility sets it (tunnels;
         in a depressurised tank, the pressure over the free surface plus the scaled
-        hydrostatic head). ``extra["static_pressure"]`` holds the pressure the facility is
-        set to (test-section static pressure, or the pressure over the free surface).
+        hydrostatic head). ``static_pressure`` holds the pressure the facility is set to.
     exact : tuple of str
         Groups matched exactly.
     binding : str
@@ -39,14 +39,32 @@ class Solution:
         The objective used to pick this solution.
     candidates_searched : int
         Number of (fluid, temperature, pressure, scale) candidates evaluated.
-    extra : dict
-        ``fluid`` (catalogue name), ``static_pressure`` [Pa], ``solved_by`` (the variable
-        through which the second exact group is met), and, when a requested exact group had
-        to be dropped, ``relaxed`` ((group, reason), ...) and ``request`` (the request solved).
-        For the largest/smallest-model objectives: ``limiting_scale`` (the scale at the
-        binding facility limit, before rounding), ``limiting_binding`` (that limit in words)
-        and ``scale_rounding`` (what was done: "rounded up from ... to ..." or "not rounded:
-        ..."), see ``MatchRequest.round_scale``.
+    fluid_name : str
+        Catalogue name of the model fluid (``fluids_props.get_fluid``); "" when unknown.
+    static_pressure : float or None
+        Pressure the facility is set to [Pa]: the test-section static pressure of a tunnel,
+        or the pressure over the free surface of a tank (atmospheric unless the tank is
+        depressurised). None: the model fluid's own pressure.
+    solved_by : str
+        The variable through which the exact group after the speed-fixing one is met
+        ("pressure", "temperature", "scale" or "model speed"); "" when only one exact group
+        needs the search.
+    relaxed : tuple of (str, str)
+        (group, reason) of each requested exact group that could not be met inside the
+        facility and was minimised instead (``MatchRequest.relax``); empty when none.
+    solved_request : MatchRequest or None
+        The request actually solved when groups were relaxed (the dropped group moved to the
+        reported ones, objective ``least_mismatch``); None: the case's own request.
+    limiting_scale : float or None
+        For the largest- and smallest-model objectives: the scale at the binding facility
+        limit, before rounding to a convenient one [-]; None for a fixed scale or model
+        length, the ``least_mismatch`` objective and solutions found by solving for scale.
+    limiting_binding : str
+        The binding limit at ``limiting_scale``, in words; "" when ``limiting_scale`` is None.
+    scale_rounding : str
+        What was done with the limiting scale: "rounded up from ... to ..." (or "down"),
+        "not rounded: ..." with the reason, or "" (already convenient, or not rounded by
+        request: ``MatchRequest.round_scale``).
     """
 
     scale: float
@@ -59,7 +77,14 @@ class Solution:
     binding: str = ""
     objective: str = "largest_model"
     candidates_searched: int = 0
-    extra: dict = field(default_factory=dict)
+    fluid_name: str = ""
+    static_pressure: float | None = None
+    solved_by: str = ""
+    relaxed: tuple[tuple[str, str], ...] = ()
+    solved_request: MatchRequest | None = None
+    limiting_scale: float | None = None
+    limiting_binding: str = ""
+    scale_rounding: str = ""
 
     def model_speed(self, prototype_speed):
         """Model speed [m/s] for prototype speed(s) [m/s]."""

@@ -27,12 +27,12 @@ Practitioners build models to round scales, so for the largest- and smallest-mod
 objectives the limiting scale is then replaced by the nearest convenient one that still
 satisfies every limit (:func:`convenient_scale`, rounded towards a smaller model for
 ``largest_model``; common practice) and the case is re-solved at that fixed scale, so the exact
-groups stay exact to 1e-9; the limiting scale is kept in ``Solution.extra``
+groups stay exact to 1e-9; the limiting scale is kept in ``Solution.limiting_scale``
 (``MatchRequest.round_scale`` switches this off).
 
 When the exact groups cannot all be met inside the facility and the request allows it
 (``MatchRequest.relax``, default), the lowest-priority exact group is dropped, the others stay
-exact and its log-mismatch is minimised; the Solution records why (``extra["relaxed"]``).
+exact and its log-mismatch is minimised; the Solution records why (``Solution.relaxed``).
 Otherwise :class:`~similitude.errors.InfeasibleError` names the binding limit and its excess.
 
 Matching Froude and Reynolds numbers together needs nu_m / nu_p = lambda^-1.5 [2]_; the solver
@@ -499,10 +499,10 @@ def _round_scale(case: Case, sol: Solution, n_candidates: int) -> Solution:
     """Replace the limiting scale of a largest/smallest-model solution by a convenient one
     that satisfies every limit, re-solved at that fixed scale (exact groups to 1e-9)."""
     req = case.request
-    solved = sol.extra.get("request", req)
+    solved = sol.solved_request if sol.solved_request is not None else req
     if (not req.round_scale or req.scale is not None or req.model_length is not None
             or solved.objective not in ("largest_model", "smallest_model")
-            or sol.extra.get("solved_by") == AXIS_WORDS["lam"]):
+            or sol.solved_by == AXIS_WORDS["lam"]):
         return sol
     direction = "up" if solved.objective == "largest_model" else "down"
     lam_lo, lam_hi = scale_bounds(case)
@@ -514,8 +514,7 @@ def _round_scale(case: Case, sol: Solution, n_candidates: int) -> Solution:
         if not (math.isfinite(lam) and lam_lo * (1 - 1e-12) <= lam <= lam_hi * (1 + 1e-12)):
             break
         if lam == lam0:
-            return replace(sol, extra={**sol.extra, "limiting_scale": lam0,
-                                       "limiting_binding": sol.binding})
+            return replace(sol, limiting_scale=lam0, limiting_binding=sol.binding)
         fixed = replace(case, request=replace(solved, scale=lam, round_scale=False,
                                               relax=False))
         try:
@@ -523,21 +522,21 @@ def _round_scale(case: Case, sol: Solution, n_candidates: int) -> Solution:
         except (InfeasibleError, InputError) as exc:
             tried.append(f"{format_scale(lam, 6)} ({exc})")
             continue
-        extra = {**new.extra, "limiting_scale": lam0, "limiting_binding": sol.binding,
-                 "scale_rounding": f"rounded {direction} from the limiting "
-                                   f"{format_scale(lam0, 6)} to the convenient "
-                                   f"{format_scale(lam, 6)}"}
-        for key in ("relaxed", "request"):
-            if key in sol.extra:
-                extra[key] = sol.extra[key]
-        return replace(new, extra=extra, objective=sol.objective,
+        return replace(new, limiting_scale=lam0, limiting_binding=sol.binding,
+                       scale_rounding=f"rounded {direction} from the limiting "
+                                      f"{format_scale(lam0, 6)} to the convenient "
+                                      f"{format_scale(lam, 6)}",
+                       # The relaxation happened at the limiting scale: it stays on record.
+                       relaxed=sol.relaxed or new.relaxed,
+                       solved_request=(sol.solved_request if sol.solved_request is not None
+                                       else new.solved_request),
+                       objective=sol.objective,
                        binding=f"{sol.binding}; scale rounded {direction} to the convenient "
                                f"{format_scale(lam, 6)} (limiting {format_scale(lam0, 6)})",
                        candidates_searched=searched + new.candidates_searched)
     why = "; ".join(tried) if tried else "no convenient scale inside the search range"
-    return replace(sol, extra={**sol.extra, "limiting_scale": lam0,
-                               "limiting_binding": sol.binding,
-                               "scale_rounding": f"not rounded: {why}"})
+    return replace(sol, limiting_scale=lam0, limiting_binding=sol.binding,
+                   scale_rounding=f"not rounded: {why}")
 
 
 def solve(case: Case, n_candidates: int = DEFAULT_CANDIDATES) -> Solution:
@@ -546,7 +545,7 @@ def solve(case: Case, n_candidates: int = DEFAULT_CANDIDATES) -> Solution:
     For the largest- and smallest-model objectives the limiting scale found by the search is
     then replaced by the nearest convenient scale that still satisfies every limit
     (:func:`convenient_scale`; ``MatchRequest.round_scale``), re-solved at that fixed scale;
-    ``extra["limiting_scale"]`` keeps the unrounded value and ``extra["scale_rounding"]``
+    ``Solution.limiting_scale`` keeps the unrounded value and ``Solution.scale_rounding``
     says what was done.
 
     Parameters
@@ -585,10 +584,9 @@ def _solve_relaxing(case: Case, n_candidates: int) -> Solution:
         relaxed = replace(req, exact=tuple(g for g in req.exact if g != dropped),
                           report=(dropped,), objective="least_mismatch")
         sol = _solve_relaxing(replace(case, request=relaxed), n_candidates)
-        extra = dict(sol.extra)
-        extra["relaxed"] = tuple(extra.get("relaxed", ())) + ((dropped, str(exc)),)
-        extra["request"] = extra.get("request", relaxed)
-        return replace(sol, extra=extra)
+        return replace(sol, relaxed=sol.relaxed + ((dropped, str(exc)),),
+                       solved_request=(sol.solved_request if sol.solved_request is not None
+                                       else relaxed))
 
 
 def _solve_problem(prob: Problem, n_candidates: int) -> Solution:
@@ -782,8 +780,8 @@ def _make_solution(prob, opt, point, solve_axis, searched) -> Solution:
         rotation_ratio=rot, model_pressure=model_pressure, exact=exact,
         binding=_binding_text(prob, opt, point), objective=case.request.objective,
         candidates_searched=int(searched),
-        extra={"solved_by": AXIS_WORDS.get(solve_axis, "") if solve_axis else "",
-               "static_pressure": p, "fluid": opt.name},
+        solved_by=AXIS_WORDS.get(solve_axis, "") if solve_axis else "",
+        static_pressure=p, fluid_name=opt.name,
     )
 
 

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import json
 import math
+from dataclasses import fields
 
 import pandas as pd
 import pytest
@@ -19,6 +20,7 @@ from similitude.errors import InputError
 from similitude.planning.case import Case, FluidSpec, MatchRequest, Prototype
 from similitude.planning.facilities import Facility
 from similitude.planning.planner import Plan, plan
+from similitude.planning.solution import Solution
 from similitude.units import to_si
 
 KN = 1852.0 / 3600.0  # knot [m/s] (international nautical mile, 1929)
@@ -53,7 +55,7 @@ def test_plan_scale_and_model_length(the_plan):
 
 
 def test_plan_notes_record_the_limiting_scale_before_rounding(the_plan):
-    assert the_plan.solution.extra["limiting_scale"] == pytest.approx(LIMITING, rel=1e-9)
+    assert the_plan.solution.limiting_scale == pytest.approx(LIMITING, rel=1e-9)
     assert any("1:34.46" in n and "1:35" in n for n in the_plan.notes)
 
 
@@ -267,3 +269,13 @@ def test_relaxed_plan_says_which_group_was_dropped():
 def test_repr_and_json_carry_the_limiting_scale(the_plan):
     assert "(limiting scale 1:34.4601)" in repr(the_plan)
     assert the_plan.to_dict()["limiting_scale"] == pytest.approx(LIMITING, rel=1e-9)
+
+
+@pytest.mark.parametrize("result", [Plan, Solution])
+def test_every_field_of_the_result_objects_is_documented(result):
+    # A notebook user reads the result objects' fields from their docstrings (numpydoc
+    # Attributes section), so a field without an entry there is undocumented.
+    attributes = result.__doc__.split("Attributes\n    ----------\n", 1)[1]
+    names = {n.strip() for line in attributes.splitlines() if line.startswith("    ")
+             and not line.startswith("     ") for n in line.split(":")[0].split(",")}
+    assert [f.name for f in fields(result) if f.name not in names] == []

@@ -41,9 +41,9 @@ def test_largest_model_is_rounded_up_to_a_convenient_scale_that_keeps_every_limi
     # lambda >= 10, common practice); blockage then 190/35^2/32 = 0.004847 < 0.005.
     sol = solver.solve(Case(ship(), tank()))
     assert sol.scale == 35.0
-    assert sol.extra["limiting_scale"] == pytest.approx(math.sqrt(190.0 / 0.16), rel=1e-9)
-    assert "blockage" in sol.extra["limiting_binding"]
-    assert "rounded up" in sol.extra["scale_rounding"] and "1:35" in sol.binding
+    assert sol.limiting_scale == pytest.approx(math.sqrt(190.0 / 0.16), rel=1e-9)
+    assert "blockage" in sol.limiting_binding
+    assert "rounded up" in sol.scale_rounding and "1:35" in sol.binding
     prob = candidates.build_problem(Case(ship(), tank()))
     _, vmat, _ = candidates.violations(prob, candidates.candidate_at(prob, sol))
     assert vmat.max() <= 0
@@ -71,12 +71,12 @@ def test_scale_rounding_falls_back_to_the_next_convenient_value_or_keeps_the_lim
     # so the limiting scale is kept and the solution says why.
     sol = solver.solve(Case(ship(), tank(min_model_length=4.3)))
     assert sol.scale == pytest.approx(math.sqrt(190.0 / 0.16), rel=1e-9)
-    assert sol.extra["scale_rounding"].startswith("not rounded")
+    assert sol.scale_rounding.startswith("not rounded")
 
 
 def test_round_scale_false_keeps_the_limiting_scale():
     sol = solver.solve(Case(ship(), tank(), MatchRequest(round_scale=False)))
-    assert "limiting_scale" not in sol.extra
+    assert sol.limiting_scale is None
 
 
 def test_froude_scaling_gives_model_speed_prototype_speed_over_root_scale():
@@ -115,8 +115,8 @@ def test_smallest_model_is_rounded_down_to_a_convenient_scale():
     case = Case(ship(), tank(min_model_length=2.1), MatchRequest(objective="smallest_model"))
     sol = solver.solve(case)
     assert sol.scale == 71.0
-    assert sol.extra["limiting_scale"] == pytest.approx(150.0 / 2.1, rel=1e-9)
-    assert "rounded down" in sol.extra["scale_rounding"]
+    assert sol.limiting_scale == pytest.approx(150.0 / 2.1, rel=1e-9)
+    assert "rounded down" in sol.scale_rounding
 
 
 def test_carriage_speed_binds_with_its_excess_in_the_message():
@@ -148,8 +148,8 @@ def test_unattainable_lower_priority_group_is_relaxed_and_its_mismatch_minimised
     assert relaxed.exact == ("froude",)
     # Same model to the tolerance of the bounded mismatch minimisation (1e-6).
     assert relaxed.scale == pytest.approx(froude_only.scale, rel=1e-6)
-    assert relaxed.extra["relaxed"][0][0] == "reynolds"
-    assert "lambda^-1.5" in relaxed.extra["relaxed"][0][1]
+    assert relaxed.relaxed[0][0] == "reynolds"
+    assert "lambda^-1.5" in relaxed.relaxed[0][1]
 
 
 def test_three_exact_groups_with_two_degrees_of_freedom_are_refused():
@@ -200,7 +200,7 @@ def test_pressurised_tunnel_matches_reynolds_and_mach_through_pressure():
     assert sol.scale == pytest.approx(20.0 / 2.4, rel=1e-9)
     assert sol.model_pressure == pytest.approx(101325.0 * 20.0 / 2.4, rel=0.01)
     assert sol.velocity_ratio == pytest.approx(1.0, rel=0.01)
-    assert sol.extra["solved_by"] == "pressure"
+    assert sol.solved_by == "pressure"
 
 
 def test_pressurised_tunnel_at_the_convenient_scale_needs_lambda_atmospheres():
@@ -210,7 +210,7 @@ def test_pressurised_tunnel_at_the_convenient_scale_needs_lambda_atmospheres():
     assert sol.scale == 8.5
     assert sol.model_pressure == pytest.approx(8.5 * 101325.0, rel=0.01)
     assert sol.velocity_ratio == pytest.approx(1.0, rel=0.01)
-    assert sol.extra["solved_by"] == "pressure"
+    assert sol.solved_by == "pressure"
 
 
 def test_pressurised_tunnel_holds_both_groups_to_1e_9():
@@ -322,7 +322,7 @@ def test_cryogenic_nitrogen_tunnel_matches_reynolds_and_mach_through_temperature
 
     t_expected = brentq(lambda t: a_over_nu(t) / target - 1.0, 100.0, 300.0)
     assert float(sol.model_fluid.temperature_si) == pytest.approx(t_expected, rel=2e-3)
-    assert sol.extra["solved_by"] == "temperature"
+    assert sol.solved_by == "temperature"
 
 
 def test_cryogenic_solution_holds_both_groups_to_1e_9():
@@ -398,7 +398,7 @@ def test_depressurised_tank_scales_the_surface_pressure_for_the_cavitation_numbe
         0.5 * rho_p * 10.0**2)
     vm = 10.0 / math.sqrt(lam)
     p0 = float(mf.vapour_pressure_si) + sigma * 0.5 * rho_m * vm**2 - rho_m * G * 6.0 / lam
-    assert sol.extra["static_pressure"] == pytest.approx(p0, rel=1e-9)
+    assert sol.static_pressure == pytest.approx(p0, rel=1e-9)
     assert sol.model_pressure == pytest.approx(p0 + rho_m * G * 6.0 / lam, rel=1e-9)
 
 
@@ -409,7 +409,7 @@ def test_two_groups_through_the_fluid_state_relax_the_last_one():
     exact = ("advance_ratio", "froude", "cavitation", "reynolds")
     sol = solver.solve(Case(base.prototype, base.facility, MatchRequest(exact=exact)))
     assert sol.exact == exact[:3]
-    assert sol.extra["relaxed"][0][0] == "reynolds"
+    assert sol.relaxed[0][0] == "reynolds"
     with pytest.raises(InputError, match="at most one"):
         solver.solve(Case(base.prototype, base.facility,
                           MatchRequest(exact=exact, relax=False)))
@@ -471,7 +471,7 @@ def test_solver_picks_the_facility_fluid_with_the_least_reynolds_mismatch():
     w = iapws.IAPWS95(T=298.15, P=0.101325)
     case = Case(ship(), tank(fluids=("sea_water", "fresh_water")), MatchRequest(scale=40.0))
     sol = solver.solve(case)
-    assert sol.extra["fluid"] == "fresh_water"
+    assert sol.fluid_name == "fresh_water"
     assert float(sol.model_fluid.kinematic_viscosity_si) == pytest.approx(w.mu / w.rho,
                                                                           rel=1e-6)
 
@@ -499,4 +499,4 @@ def test_solved_froude_and_reynolds_model_has_nu_ratio_lambda_to_minus_1_5(lengt
         sol.prototype_fluid.kinematic_viscosity_si)
     assert ratio == pytest.approx(lam**-1.5, rel=1e-9)
     assert float(sol.model_fluid.temperature_si) == pytest.approx(t_m, abs=1e-6)
-    assert sol.extra["solved_by"] == "temperature"
+    assert sol.solved_by == "temperature"

@@ -11,8 +11,8 @@ others are the ferry's planned speeds, 10 to 18 kn full scale.
 
 The planned runs carry the run ids of the design loading (first repeat) of the plan made by
 ``similitude.planning.planner.plan`` for the ferry case, at the plan's scale; the low-speed runs
-have a blank run id (runs beyond the plan). Without the planner the script falls back to scale 1:21
-and free rows. Rerun the script whenever the planner's choice of scale changes.
+have a blank run id (runs beyond the plan). Rerun the script whenever the planner's choice of
+scale changes.
 
 Files written beside this script (overwritten on every run):
 
@@ -38,7 +38,10 @@ from pathlib import Path
 
 import numpy as np
 
+import similitude as sim
 from fluids_props.water import fresh_water_si
+from similitude.constants import G0 as G
+from similitude.constants import KNOT
 from similitude.correlations.friction import friction_coefficient
 
 HERE = Path(__file__).resolve().parent
@@ -47,8 +50,6 @@ SEED = 20260302
 # The ferry of demo_cases/ferry_resistance.toml (copied so this script runs on its own).
 SHIP_LENGTH = 78.0  # m, waterline
 SHIP_WETTED_SURFACE = 1450.0  # m^2
-FALLBACK_SCALE = 21.0
-PLANNED_SPEEDS_KN = (10, 12, 14, 15, 16, 17, 18)
 CASE = HERE.parent / "ferry_resistance.toml"
 LOW_SPEED_FROUDE = (0.105, 0.12, 0.135, 0.15, 0.165, 0.18, 0.195)
 
@@ -64,9 +65,7 @@ NOISE_TEMPERATURE = 0.05  # K
 PROPELLER = "diameter=4.2 m; pitch_ratio=1.0; chord_ratio=0.30; blades=4; thickness_ratio=0.04"
 OPEN_WATER_RATE = 20.0  # 1/s
 
-G = 9.80665
-KNOT = 1852.0 / 3600.0
-LBF = 4.4482216152605  # N
+LBF = 4.4482216152605  # N, exact by definition (NIST SP 811, 2008, Appendix B.8)
 
 
 def virtual_tank_ctm(froude, reynolds):
@@ -78,12 +77,7 @@ def virtual_tank_ctm(froude, reynolds):
 
 def planned_runs():
     """(scale, run ids, full-scale speeds [m/s]) of the design loading, first repeat."""
-    try:
-        import similitude as sim
-
-        plan = sim.plan(sim.load_case(CASE))
-    except (ImportError, OSError, ValueError):
-        return FALLBACK_SCALE, None, np.array(PLANNED_SPEEDS_KN) * KNOT
+    plan = sim.plan(sim.load_case(CASE))
     m = plan.matrix
     first = m[(m["repeat"] == 1) & (m["loading"] == m["loading"].iloc[0])]
     return float(plan.scale), [str(r) for r in first["run"]], first[
@@ -136,7 +130,7 @@ def main() -> None:
     rng = np.random.default_rng(SEED)
     scale, ids, ship_speeds = planned_runs()
     v, r, t = resistance_runs(rng, scale, ship_speeds)
-    run_ids = [""] * len(LOW_SPEED_FROUDE) + (ids or [""] * len(ship_speeds))
+    run_ids = [""] * len(LOW_SPEED_FROUDE) + ids
     note = _note(scale)
     _write(HERE / "ferry_resistance_runs_SYNTHETIC.csv", note,
            ["run", "model speed [m/s]", "total resistance [N]", "water temperature [degC]"],

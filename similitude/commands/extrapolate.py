@@ -1,8 +1,9 @@
 """``similitude extrapolate MEASURED.csv --case CASE.toml``: measured model data to full scale.
 
 Reads the measured resistance runs (CSV or xlsx, units in the headers), takes the ship from the
-case file and the scale from the case or its plan, runs the ITTC-1978 extrapolation (as revised
-in ITTC 7.5-02-03-01.4 Rev 04, 2017, unless told otherwise), prints a summary or JSON and, with
+case file and the scale from the case or its plan, runs :func:`similitude.prediction.predict.
+predict` (the ITTC-1978 extrapolation, as revised in ITTC 7.5-02-03-01.4 Rev 04, 2017, unless
+told otherwise; open water and uncertainty when asked), prints a summary or JSON and, with
 ``-o``, writes the results workbook. Nothing is written when anything fails, and no existing
 file is replaced without ``--force``.
 """
@@ -10,23 +11,38 @@ file is replaced without ``--force``.
 from __future__ import annotations
 
 import argparse
+from dataclasses import replace
 from pathlib import Path
-from typing import Any
 
+from similitude.correlations.ittc78 import (
+    AIR_RESISTANCE_METHODS,
+    CORRELATION_METHODS,
+    ROUGHNESS_METHODS,
+)
 from similitude.errors import InputError
 from similitude.plain_data import to_json
-from similitude.units import format_scale
+from similitude.planning.case import Case
+from similitude.planning.planner import plan as make_plan
+from similitude.prediction.extrapolation import (
+    METHODS,
+    ExtrapolationOptions,
+    ShipParticulars,
+    TankParticulars,
+    case_scale,
+)
+from similitude.prediction.open_water import OpenWaterScaling, PropellerParticulars
+from similitude.prediction.predict import Prediction, predict
+from similitude.prediction.runs import OpenWaterRuns, PlannedRuns
+from similitude.prediction.uncertainty import MeasurementUncertainty
+from similitude.readers.case_file import load_case
+from similitude.readers.measured import read_open_water_runs, read_resistance_runs
+from similitude.report.atomic import check_target
+from similitude.report.results_workbook import write_results
+from similitude.units import format_scale, parse_scale, to_si
 
 
 def add_parser(sub) -> argparse.ArgumentParser:
     """Register the ``extrapolate`` command."""
-    from similitude.correlations.ittc78 import (
-        AIR_RESISTANCE_METHODS,
-        CORRELATION_METHODS,
-        ROUGHNESS_METHODS,
-    )
-    from similitude.prediction.extrapolation import METHODS
-
     p = sub.add_parser(
         "extrapolate",
         help="extrapolate measured model resistance to full scale",
@@ -83,30 +99,93 @@ def add_parser(sub) -> argparse.ArgumentParser:
     return p
 
 
-def _plan_or_none(case, need_scale: bool):
-    """The plan of the case, or None when the planner is not available and not needed."""
-    try:
-        from similitude.planning.planner import plan as make_plan
-    except ModuleNotFoundError as exc:
-        if exc.name != "similitude.planning.planner":
-            raise
-        if need_scale:
-            raise InputError("scale: the case fixes no scale and the planner is not "
-                             "available; expected --scale such as '1:22'") from None
+def run(args) -> int:
+    """Run ``similitude extrapolate``; returns the exit code."""
+    if args.output:
+        if Path(args.output).suffix.lower() != ".xlsx":
+            raise InputError(f"-o: {args.output!r} does not end in .xlsx; expected a workbook "
+                             "path such as results.xlsx")
+        check_target(args.output, args.force)
+    case = load_case(args.case)
+    given_scale = parse_scale(args.scale, "--scale") if args.scale else None
+    plan = make_plan(case)
+    planned = PlannedRuns.from_plan(plan)
+    ship = _ship(args, case, given_scale, plan.scale)
+    options = _options(args, case)
+    runs = read_resistance_runs(args.measured, temperature=args.temperature,
+                                plan_runs=planned.run)
+    propeller, open_water_runs = _open_water(args, ship.scale)
+    prediction = predict(runs, ship, options, open_water_runs=open_water_runs,
+                         propeller=propeller, uncertainty=_uncertainty(args), planned=planned)
+    written = None
+    if args.output:
+        written = write_results(args.output, prediction.extrapolation,
+                                uncertainty=prediction.uncertainty,
+                                open_water=prediction.open_water, overwrite=args.force)
+    if args.json:
+        data = prediction.to_dict()
+        if written is not None:
+            data["written"] = str(written)
+        print(to_json(data))
+    else:
+        print(_summary(prediction))
+        if written is not None:
+            print(f"wrote {written}")
+    return 0
+
+
+def _ship(args, case: Case, given_scale: float | None, plan_scale: float) -> ShipParticulars:
+    """The ship of the case at the scale given, else the case's, else the plan's."""
+    scale = given_scale
+    if scale is None:
+        fixed = case_scale(case)
+        scale = fixed if fixed is not None else float(plan_scale)
+    ship = ShipParticulars.from_case(case, scale)
+    if args.hull_roughness:
+        ship = replace(ship, hull_roughness=to_si(args.hull_roughness, "[length]",
+                                                  "--hull-roughness"))
+    return ship
+
+
+def _options(args, case: Case) -> ExtrapolationOptions:
+    tank = None
+    if args.blockage:
+        tank = TankParticulars(case.facility.width, case.facility.depth)
+    return ExtrapolationOptions(
+        method=args.method, form_factor=args.form_factor,
+        froude_range=tuple(args.froude_range), roughness_method=args.roughness_method,
+        correlation_method=args.correlation_method,
+        correlation_allowance=args.correlation_allowance, air_method=args.air_method,
+        blockage=args.blockage, tank=tank)
+
+
+def _open_water(args, scale: float) -> tuple[PropellerParticulars | None, OpenWaterRuns | None]:
+    """The full-scale propeller and the measured open-water runs, or (None, None) without
+    --open-water."""
+    if not args.open_water and not args.propeller:
+        return None, None
+    if not (args.open_water and args.propeller):
+        raise InputError("--open-water and --propeller: give both (the runs and the full-scale "
+                         "propeller) or neither")
+    propeller = PropellerParticulars.from_text(args.propeller, scale)
+    # Thrust and torque, if given, are reduced with fresh tank water at the run temperature
+    # (from the file, or --temperature for all runs).
+    runs = read_open_water_runs(args.open_water, diameter=propeller.model_diameter,
+                                temperature=args.temperature)
+    return propeller, runs
+
+
+def _uncertainty(args) -> MeasurementUncertainty | None:
+    """The standard uncertainties given on the command line, or None when none is."""
+    given = (args.speed_uncertainty, args.resistance_uncertainty, args.temperature_uncertainty,
+             args.form_factor_uncertainty)
+    if all(g is None for g in given):
         return None
-    return make_plan(case)
+    return MeasurementUncertainty.from_quantities(*given)
 
 
-def _plan_runs(plan) -> list[Any] | None:
-    if plan is None:
-        return None
-    matrix = getattr(plan, "matrix", None)
-    if matrix is None or "run" not in getattr(matrix, "columns", ()):
-        return None
-    return list(matrix["run"])
-
-
-def _summary(e, u=None) -> str:
+def _summary(prediction: Prediction) -> str:
+    e, u = prediction.extrapolation, prediction.uncertainty
     lines = [f"{e.ship.name}: {len(e.runs)} runs from {e.runs.source or 'input'}, scale "
              f"{format_scale(e.ship.scale)}"]
     lines.append(f"  method       {e.options.revision_note}")
@@ -118,8 +197,7 @@ def _summary(e, u=None) -> str:
     lines.append(f"  form factor  {text})")
     lines.append("  ship speed [kn]   C_TS [-]     R_TS [kN]    P_E [kW]"
                  + ("    u(P_E) [kW]" if u is not None else ""))
-    table = e.results
-    for i, row in table.iterrows():
+    for i, row in e.results.iterrows():
         line = (f"  {row['ship speed [kn]']:15.2f}   {row['C_TS [-]']:.5f}   "
                 f"{row['R_TS [kN]']:10.1f}   {row['P_E [kW]']:9.1f}")
         if u is not None:
@@ -127,129 +205,14 @@ def _summary(e, u=None) -> str:
         lines.append(line)
     if u is not None:
         lines.append(f"  uncertainty  {u.method}")
-    for note in e.notes[1:]:  # the first is the method line above
+    for note in (*e.notes[1:], *prediction.plan_notes):  # notes[0]: the method line above
         lines.append(f"  note: {note}")
+    if prediction.open_water is not None:
+        lines.append(_open_water_summary(prediction.open_water))
     return "\n".join(lines)
 
 
-def run(args) -> int:
-    """Run ``similitude extrapolate``; returns the exit code."""
-    from similitude.prediction.extrapolation import (
-        ExtrapolationOptions,
-        ShipParticulars,
-        TankParticulars,
-        extrapolate,
-    )
-    from similitude.prediction.uncertainty import MeasurementUncertainty, propagate
-    from similitude.readers.case_file import load_case
-    from similitude.readers.measured import read_resistance_runs
-    from similitude.report.atomic import check_target
-    from similitude.units import parse_scale, to_si
-
-    if args.output:
-        if Path(args.output).suffix.lower() != ".xlsx":
-            raise InputError(f"-o: {args.output!r} does not end in .xlsx; expected a workbook "
-                             "path such as results.xlsx")
-        check_target(args.output, args.force)
-    case = load_case(args.case)
-    scale = parse_scale(args.scale, "--scale") if args.scale else None
-    req = case.request
-    case_scale = req.scale or (case.prototype.length / req.model_length
-                               if req.model_length else None)
-    plan = _plan_or_none(case, need_scale=scale is None and case_scale is None)
-    if scale is None:
-        scale = case_scale if case_scale is not None else float(plan.scale)
-    ship = ShipParticulars.from_case(case, scale)
-    if args.hull_roughness:
-        from dataclasses import replace
-
-        ship = replace(ship, hull_roughness=to_si(args.hull_roughness, "[length]",
-                                                  "--hull-roughness"))
-    tank = None
-    if args.blockage:
-        tank = TankParticulars(case.facility.width, case.facility.depth)
-    options = ExtrapolationOptions(
-        method=args.method, form_factor=args.form_factor,
-        froude_range=tuple(args.froude_range), roughness_method=args.roughness_method,
-        correlation_method=args.correlation_method,
-        correlation_allowance=args.correlation_allowance, air_method=args.air_method,
-        blockage=args.blockage, tank=tank)
-    runs = read_resistance_runs(args.measured, temperature=args.temperature,
-                                plan_runs=_plan_runs(plan))
-    e = extrapolate(runs, ship, options)
-    plan_notes = _plan_speed_notes(runs, plan, scale)
-    ow = _open_water(args, ship.scale)
-    u = None
-    given = (args.speed_uncertainty, args.resistance_uncertainty, args.temperature_uncertainty,
-             args.form_factor_uncertainty)
-    if any(g is not None for g in given):
-        u = propagate(e, MeasurementUncertainty.from_quantities(*given))
-    written = None
-    if args.output:
-        written = e.to_excel(args.output, overwrite=args.force, uncertainty=u, open_water=ow)
-    if args.json:
-        data = e.to_dict()
-        if u is not None:
-            data["uncertainty"] = {"method": u.method,
-                                   "table": u.table.to_dict(orient="records")}
-        data["plan_notes"] = plan_notes
-        if ow is not None:
-            data["open_water"] = {"notes": list(ow.notes),
-                                  "table": ow.table.to_dict(orient="records")}
-        if written is not None:
-            data["written"] = str(written)
-        print(to_json(data))
-    else:
-        print(_summary(e, u))
-        for note in plan_notes:
-            print(f"  note: {note}")
-        if ow is not None:
-            print(_open_water_summary(ow))
-        if written is not None:
-            print(f"wrote {written}")
-    return 0
-
-
-def _plan_speed_notes(runs, plan, scale: float) -> list[str]:
-    """Notes where measured and planned model speeds of the same run id disagree."""
-    from similitude.prediction.runs import planned_speed_notes
-
-    ids = _plan_runs(plan)
-    matrix = getattr(plan, "matrix", None)
-    if ids is None or "model speed [m/s]" not in matrix.columns:
-        return []
-    notes = planned_speed_notes(runs, ids, matrix["model speed [m/s]"])
-    if notes and abs(scale / float(plan.scale) - 1.0) > 1e-6:
-        notes.append(f"the scale used ({format_scale(scale)}) is not the plan's "
-                     f"({format_scale(plan.scale)})")
-    return notes
-
-
-def _open_water(args, scale: float):
-    """The scaled open-water characteristics, or None without --open-water."""
-    if not args.open_water and not args.propeller:
-        return None
-    if not (args.open_water and args.propeller):
-        raise InputError("--open-water and --propeller: give both (the runs and the full-scale "
-                         "propeller) or neither")
-    from fluids_props.water import fresh_water_si
-    from similitude.prediction.open_water import PropellerParticulars, scale_open_water
-    from similitude.readers.measured import read_open_water_runs
-
-    prop = PropellerParticulars.from_text(args.propeller, scale)
-    # Thrust and torque, if given, are reduced with the tank water at the stated temperature.
-    rho = None
-    if args.temperature:
-        from similitude.units import to_si
-
-        rho = float(fresh_water_si(to_si(args.temperature, "[temperature]",
-                                         "--temperature")).density_si)
-    runs = read_open_water_runs(args.open_water, diameter=prop.model_diameter, density=rho,
-                                temperature=args.temperature)
-    return scale_open_water(runs, prop)
-
-
-def _open_water_summary(ow) -> str:
+def _open_water_summary(ow: OpenWaterScaling) -> str:
     t = ow.table
     best = t["eta_0 ship [-]"].idxmax()
     j_best = t["advance ratio J [-]"][best]

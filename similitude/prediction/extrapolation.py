@@ -18,6 +18,10 @@ run by run:
 Predictions are estimates: the facility's own correlation practice, the current ITTC procedures
 and licensed practice prevail.
 
+pandas is imported inside the functions that build DataFrames: the command line builds every
+command's parser at start (this module gives the ``extrapolate`` command its choices), and that
+start must not pay for pandas.
+
 References
 ----------
 .. [1] ITTC, "1978 ITTC Performance Prediction Method", Recommended Procedure 7.5-02-03-01.4,
@@ -49,6 +53,7 @@ from similitude.correlations import blockage as _blockage
 from similitude.correlations import friction as _friction
 from similitude.correlations import ittc78
 from similitude.errors import InputError
+from similitude.plain_data import plain
 from similitude.prediction.runs import ResistanceRuns
 from similitude.units import parse_scale, to_si
 
@@ -192,14 +197,10 @@ class ShipParticulars:
             raise InputError("prototype.dimensions.wetted_surface: missing; expected the ship's "
                              "bare-hull wetted surface (e.g. wetted_surface = '2650 m^2')")
         if scale is None:
-            req = case.request
-            if req.scale is not None:
-                scale = req.scale
-            elif req.model_length is not None:
-                scale = proto.length / req.model_length
-            else:
-                raise InputError("scale: the case fixes no scale; expected match.scale, "
-                                 "match.model_length or the plan's scale")
+            scale = case_scale(case)
+        if scale is None:
+            raise InputError("scale: the case fixes no scale; expected match.scale, "
+                             "match.model_length or the plan's scale")
         fluid = proto.fluid
         if fluid.name == "sea_water":
             salinity = STANDARD_SALINITY if fluid.salinity is None else fluid.salinity
@@ -215,6 +216,22 @@ class ShipParticulars:
             midship_area=dims.get("midship_area"), beam=dims.get("beam"),
             water_temperature=fluid.temperature, salinity=salinity, name=proto.name,
         )
+
+
+def case_scale(case) -> float | None:
+    """The scale λ a case fixes: ``match.scale``, or the prototype length over
+    ``match.model_length``; None when the case leaves the scale to the planner.
+
+    Parameters
+    ----------
+    case : similitude.planning.case.Case
+    """
+    req = case.request
+    if req.scale is not None:
+        return req.scale
+    if req.model_length is not None:
+        return case.prototype.length / req.model_length
+    return None
 
 
 @dataclass(frozen=True)
@@ -426,8 +443,8 @@ class Extrapolation:
         return out
 
     def to_dict(self) -> dict[str, Any]:
-        """Plain data for JSON output."""
-        return {
+        """Plain data for JSON output (through :func:`similitude.plain_data.plain`)."""
+        return plain({
             "ship": asdict(self.ship),
             "options": {k: v for k, v in asdict(self.options).items() if k != "tank"}
             | {"tank": None if self.options.tank is None else asdict(self.options.tank),
@@ -436,7 +453,7 @@ class Extrapolation:
             "form_factor": self.fit_summary(),
             "results": self.results.to_dict(orient="records"),
             "notes": list(self.notes),
-        }
+        })
 
     def to_excel(self, path, overwrite: bool = False, uncertainty=None, open_water=None):
         """Write the workbook (see :func:`similitude.report.results_workbook.write_results`)."""
@@ -458,6 +475,94 @@ def _water_si(temperature, salinity: float = 0.0):
         state = fresh_water_si(t)
     return (np.asarray(state.density_si, dtype=float),
             np.asarray(state.kinematic_viscosity_si, dtype=float))
+
+
+def _model_coefficients(v, r_m, rho_m, nu_m, ship: ShipParticulars, line: str):
+    """Fn, Re_M, C_TM and C_FM of the model at speed ``v`` [m/s], at the test temperature."""
+    lm, sm = ship.model_length, ship.model_wetted_surface
+    fn = v / np.sqrt(G0 * lm)
+    re = v * lm / nu_m
+    ctm = ittc78.coefficient_from_resistance(r_m, rho_m, sm, v)
+    cfm = _friction.friction_coefficient(re, line)
+    return fn, re, np.atleast_1d(ctm), np.atleast_1d(cfm)
+
+
+def _form_factor(fn, ctm, cfm, options: ExtrapolationOptions, form_factor: float | None):
+    """(k, Prohaska fit or None): 0 in Froude's method, else the given k, else the fit."""
+    if options.method == "froude":
+        return 0.0, None
+    k_given = form_factor if form_factor is not None else options.form_factor
+    if k_given is not None:
+        return float(k_given), None
+    fit = ittc78.prohaska_fit(fn, ctm, cfm, options.prohaska_exponent, options.froude_range)
+    return fit.form_factor, fit
+
+
+def _blockage_correction(v_carriage, fn, ctm, cfm, ship: ShipParticulars,
+                         options: ExtrapolationOptions, form_factor: float | None):
+    """(dV/V, blockage ratio m, depth Froude number) of each run, from the uncorrected
+    coefficients (ITTC 7.5-02-02-01 §3.6.3)."""
+    tank = options.tank
+    if ship.midship_area is None:
+        raise InputError("ship.midship_area: missing; the blockage correction needs the "
+                         "midship section area A_X")
+    blockage_ratio = ship.midship_area / ship.scale**2 / (tank.width * tank.depth)
+    depth_froude = v_carriage / np.sqrt(G0 * tank.depth)
+    # The viscous share R_V/R_T of Schuster's wave term needs k: a first estimate from the
+    # uncorrected runs, then the whole model analysis is redone on the corrected speeds.
+    k0, _ = _form_factor(fn, ctm, cfm, options, form_factor)
+    viscous = np.clip((1.0 + k0) * cfm / ctm, 0.0, 1.0)
+    lb = None if ship.beam is None else ship.length / ship.beam
+    dvv = np.atleast_1d(_blockage.tank_speed_correction(
+        blockage_ratio, depth_froude, options.blockage, length_over_width=lb,
+        viscous_fraction=viscous))
+    return dvv, blockage_ratio, depth_froude
+
+
+def _standard_temperature_si(v_m, ctm, cfm, k: float, ship: ShipParticulars,
+                             options: ExtrapolationOptions) -> dict[str, Any]:
+    """C_TM and R_TM corrected to the standard temperature (fresh tank water), and C_R."""
+    lm, sm = ship.model_length, ship.model_wetted_surface
+    rho_15, nu_15 = _water_si(options.standard_temperature)
+    re_m15 = v_m * lm / nu_15
+    cfm15 = np.atleast_1d(_friction.friction_coefficient(re_m15, options.friction_line))
+    ctm15 = np.atleast_1d(ittc78.temperature_corrected_ctm(ctm, cfm, cfm15, k))
+    rtm15 = np.atleast_1d(ittc78.resistance_from_coefficient(ctm15, rho_15, sm, v_m))
+    cr = np.atleast_1d(ittc78.residuary_coefficient(ctm15, cfm15, k))
+    return {"rho_15": float(rho_15), "nu_15": float(nu_15), "cfm15": cfm15, "ctm15": ctm15,
+            "rtm15": rtm15, "cr": cr}
+
+
+def _ship_si(v_m, cr, k: float, ship: ShipParticulars,
+             options: ExtrapolationOptions) -> dict[str, Any]:
+    """The ship at the model's Froude number: allowances, C_TS, R_TS and P_E."""
+    line = options.friction_line
+    v_s = v_m * np.sqrt(ship.scale)
+    rho_s, nu_s = _water_si(ship.water_temperature, ship.salinity)
+    rho_s, nu_s = float(rho_s), float(nu_s)
+    re_s = v_s * ship.length / nu_s
+    cfs = np.atleast_1d(_friction.friction_coefficient(re_s, line))
+    # Bowden-Davison depends on L only (a scalar): broadcast to the runs.
+    dcf = np.asarray(ittc78.roughness_allowance(ship.length, re_s, ship.hull_roughness,
+                                                options.roughness_method)) * np.ones_like(v_s)
+    if options.correlation_allowance is not None:
+        ca = np.full_like(v_s, float(options.correlation_allowance))
+    else:
+        ca = np.atleast_1d(ittc78.correlation_allowance(
+            ship.length, re_s, options.resolved_correlation_method)) * np.ones_like(v_s)
+    caas = float(ittc78.air_resistance_coefficient(
+        ship.transverse_area, ship.wetted_surface, ship.air_density, rho_s,
+        options.air_drag_coefficient, options.air_method))
+    cts = np.atleast_1d(ittc78.ship_total_resistance_coefficient(
+        cfs, k, dcf, ca, cr, caas, ship.wetted_surface, ship.bilge_keel_area))
+    rts = np.atleast_1d(ittc78.resistance_from_coefficient(cts, rho_s, ship.wetted_surface, v_s))
+    pe = np.atleast_1d(ittc78.effective_power(cts, rho_s, ship.wetted_surface, v_s))
+    return {
+        "ship_speed": v_s, "rho_s": rho_s, "nu_s": nu_s, "re_s": re_s, "cfs": cfs,
+        "dcf": dcf, "ca": ca, "caas": caas,
+        "bk_factor": (ship.wetted_surface + ship.bilge_keel_area) / ship.wetted_surface,
+        "cts": cts, "rts": rts, "pe": pe,
+    }
 
 
 def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
@@ -489,88 +594,25 @@ def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
     r_meas = np.atleast_1d(np.asarray(resistance, dtype=float))
     t_m = np.broadcast_to(np.asarray(temperature, dtype=float), v_carriage.shape)
     r_m = r_meas - (0.0 if stimulator_drag is None else np.asarray(stimulator_drag, float))
-    lm, sm = ship.model_length, ship.model_wetted_surface
     rho_m, nu_m = _water_si(t_m)
-    line = options.friction_line
-
-    def model_coefficients(v):
-        fn = v / np.sqrt(G0 * lm)
-        re = v * lm / nu_m
-        ctm = ittc78.coefficient_from_resistance(r_m, rho_m, sm, v)
-        cfm = _friction.friction_coefficient(re, line)
-        return fn, re, np.atleast_1d(ctm), np.atleast_1d(cfm)
-
-    def form_factor_of(fn, ctm, cfm):
-        if options.method == "froude":
-            return 0.0, None
-        k_given = form_factor if form_factor is not None else options.form_factor
-        if k_given is not None:
-            return float(k_given), None
-        fit = ittc78.prohaska_fit(fn, ctm, cfm, options.prohaska_exponent,
-                                  options.froude_range)
-        return fit.form_factor, fit
-
-    fn, re_m, ctm, cfm = model_coefficients(v_carriage)
     dvv = np.zeros_like(v_carriage)
     blockage_ratio = depth_froude = None
     if options.blockage is not None:
-        tank = options.tank
-        if ship.midship_area is None:
-            raise InputError("ship.midship_area: missing; the blockage correction needs the "
-                             "midship section area A_X")
-        blockage_ratio = ship.midship_area / ship.scale**2 / (tank.width * tank.depth)
-        depth_froude = v_carriage / np.sqrt(G0 * tank.depth)
-        # The viscous share R_V/R_T of Schuster's wave term needs k: a first estimate from the
-        # uncorrected runs, then the whole model analysis is redone on the corrected speeds.
-        k0, _ = form_factor_of(fn, ctm, cfm)
-        viscous = np.clip((1.0 + k0) * cfm / ctm, 0.0, 1.0)
-        lb = None if ship.beam is None else ship.length / ship.beam
-        dvv = np.atleast_1d(_blockage.tank_speed_correction(
-            blockage_ratio, depth_froude, options.blockage, length_over_width=lb,
-            viscous_fraction=viscous))
+        uncorrected = _model_coefficients(v_carriage, r_m, rho_m, nu_m, ship,
+                                          options.friction_line)
+        fn0, _, ctm0, cfm0 = uncorrected
+        dvv, blockage_ratio, depth_froude = _blockage_correction(
+            v_carriage, fn0, ctm0, cfm0, ship, options, form_factor)
     v_m = v_carriage * (1.0 + dvv)
-    fn, re_m, ctm, cfm = model_coefficients(v_m)
-    k, fit = form_factor_of(fn, ctm, cfm)
-
-    # Temperature correction to the standard temperature, fresh tank water.
-    rho_15, nu_15 = _water_si(options.standard_temperature)
-    re_m15 = v_m * lm / nu_15
-    cfm15 = np.atleast_1d(_friction.friction_coefficient(re_m15, line))
-    ctm15 = np.atleast_1d(ittc78.temperature_corrected_ctm(ctm, cfm, cfm15, k))
-    rtm15 = np.atleast_1d(ittc78.resistance_from_coefficient(ctm15, rho_15, sm, v_m))
-    cr = np.atleast_1d(ittc78.residuary_coefficient(ctm15, cfm15, k))
-
-    # Ship at the same Froude number.
-    v_s = v_m * np.sqrt(ship.scale)
-    rho_s, nu_s = _water_si(ship.water_temperature, ship.salinity)
-    rho_s, nu_s = float(rho_s), float(nu_s)
-    re_s = v_s * ship.length / nu_s
-    cfs = np.atleast_1d(_friction.friction_coefficient(re_s, line))
-    # Bowden-Davison depends on L only (a scalar): broadcast to the runs.
-    dcf = np.asarray(ittc78.roughness_allowance(ship.length, re_s, ship.hull_roughness,
-                                                options.roughness_method)) * np.ones_like(v_s)
-    if options.correlation_allowance is not None:
-        ca = np.full_like(v_s, float(options.correlation_allowance))
-    else:
-        ca = np.atleast_1d(ittc78.correlation_allowance(
-            ship.length, re_s, options.resolved_correlation_method)) * np.ones_like(v_s)
-    caas = float(ittc78.air_resistance_coefficient(
-        ship.transverse_area, ship.wetted_surface, ship.air_density, rho_s,
-        options.air_drag_coefficient, options.air_method))
-    cts = np.atleast_1d(ittc78.ship_total_resistance_coefficient(
-        cfs, k, dcf, ca, cr, caas, ship.wetted_surface, ship.bilge_keel_area))
-    rts = np.atleast_1d(ittc78.resistance_from_coefficient(cts, rho_s, ship.wetted_surface, v_s))
-    pe = np.atleast_1d(ittc78.effective_power(cts, rho_s, ship.wetted_surface, v_s))
+    fn, re_m, ctm, cfm = _model_coefficients(v_m, r_m, rho_m, nu_m, ship, options.friction_line)
+    k, fit = _form_factor(fn, ctm, cfm, options, form_factor)
+    standard = _standard_temperature_si(v_m, ctm, cfm, k, ship, options)
     return {
         "carriage_speed": v_carriage, "resistance_measured": r_meas, "resistance": r_m,
         "temperature": t_m, "rho_m": rho_m, "nu_m": nu_m, "blockage_ratio": blockage_ratio,
         "depth_froude": depth_froude, "dvv": dvv, "model_speed": v_m, "froude": fn,
-        "re_m": re_m, "ctm": ctm, "cfm": cfm, "k": k, "fit": fit, "rho_15": float(rho_15),
-        "nu_15": float(nu_15), "cfm15": cfm15, "ctm15": ctm15, "rtm15": rtm15, "cr": cr,
-        "ship_speed": v_s, "rho_s": rho_s, "nu_s": nu_s, "re_s": re_s, "cfs": cfs,
-        "dcf": dcf, "ca": ca, "caas": caas,
-        "bk_factor": (ship.wetted_surface + ship.bilge_keel_area) / ship.wetted_surface,
-        "cts": cts, "rts": rts, "pe": pe,
+        "re_m": re_m, "ctm": ctm, "cfm": cfm, "k": k, "fit": fit, **standard,
+        **_ship_si(v_m, standard["cr"], k, ship, options),
     }
 
 
@@ -581,7 +623,7 @@ def extrapolate(runs: ResistanceRuns, ship: ShipParticulars,
     Parameters
     ----------
     runs : ResistanceRuns
-        From :func:`similitude.readers.measured.read_resistance_runs`.
+        From :func:`similitude.readers.measured.read_resistance_runs`, or built from arrays.
     ship : ShipParticulars
         Built directly, with :meth:`ShipParticulars.from_quantities` or
         :meth:`ShipParticulars.from_case`.
@@ -608,8 +650,6 @@ def extrapolate(runs: ResistanceRuns, ship: ShipParticulars,
            Rev 04 (2017).
     .. [2] ITTC 7.5-02-02-01 "Resistance Test", Rev 03 (2011).
     """
-    import pandas as pd
-
     options = options or ExtrapolationOptions()
     if changes:
         try:
@@ -618,6 +658,16 @@ def extrapolate(runs: ResistanceRuns, ship: ShipParticulars,
             raise InputError(f"options: {exc}") from None
     a = pipeline_si(runs.speed, runs.resistance, runs.temperature, ship, options,
                     stimulator_drag=runs.stimulator_drag)
+    ids = list(runs.run)
+    return Extrapolation(ship, options, runs, a["k"], a["fit"], _model_frame(runs, a),
+                         _full_scale_frame(ids, a), _results_frame(ids, a),
+                         _notes(options, a), a)
+
+
+def _model_frame(runs: ResistanceRuns, a: dict[str, Any]):
+    """The model-scale steps per run, as a DataFrame with units in the headers."""
+    import pandas as pd
+
     ids = list(runs.run)
     model = pd.DataFrame({
         "run": ids,
@@ -647,7 +697,14 @@ def extrapolate(runs: ResistanceRuns, ship: ShipParticulars,
         model["sinkage [m]"] = runs.sinkage
     if runs.trim is not None:
         model["trim [deg]"] = runs.trim
-    full = pd.DataFrame({
+    return model
+
+
+def _full_scale_frame(ids: list[str], a: dict[str, Any]):
+    """The ship-scale steps per run, as a DataFrame with units in the headers."""
+    import pandas as pd
+
+    return pd.DataFrame({
         "run": ids,
         "Froude number [-]": a["froude"],
         "ship speed [m/s]": a["ship_speed"],
@@ -664,7 +721,13 @@ def extrapolate(runs: ResistanceRuns, ship: ShipParticulars,
         "R_TS [kN]": a["rts"] / 1e3,
         "P_E [kW]": a["pe"] / 1e3,
     })
-    results = pd.DataFrame({
+
+
+def _results_frame(ids: list[str], a: dict[str, Any]):
+    """The summary per run, sorted by ship speed."""
+    import pandas as pd
+
+    return pd.DataFrame({
         "run": ids,
         "ship speed [kn]": a["ship_speed"] / KNOT,
         "ship speed [m/s]": a["ship_speed"],
@@ -673,6 +736,10 @@ def extrapolate(runs: ResistanceRuns, ship: ShipParticulars,
         "R_TS [kN]": a["rts"] / 1e3,
         "P_E [kW]": a["pe"] / 1e3,
     }).sort_values("ship speed [m/s]", kind="stable").reset_index(drop=True)
+
+
+def _notes(options: ExtrapolationOptions, a: dict[str, Any]) -> tuple[str, ...]:
+    """The method statement, the caution, and warnings on the fit and the model flow."""
     notes = [options.revision_note, CAUTION]
     if a["fit"] is not None and a["fit"].r_squared < 0.9:
         notes.append(f"Prohaska's fit has R^2 = {a['fit'].r_squared:.3f}: the form factor is "
@@ -686,8 +753,7 @@ def extrapolate(runs: ResistanceRuns, ship: ShipParticulars,
                      "despite the stimulators; the ITTC-1957 line assumes turbulent flow.")
     if options.blockage is None:
         notes.append("No blockage correction applied.")
-    return Extrapolation(ship, options, runs, a["k"], a["fit"], model, full, results,
-                         tuple(notes), a)
+    return tuple(notes)
 
 
 __all__ = [
@@ -697,6 +763,7 @@ __all__ = [
     "ExtrapolationOptions",
     "ShipParticulars",
     "TankParticulars",
+    "case_scale",
     "extrapolate",
     "pipeline_si",
 ]

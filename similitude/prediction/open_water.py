@@ -17,6 +17,9 @@ References
        correction as the 1978 method, Rev 00, 1999).
 .. [2] ITTC, "Open Water Test", Recommended Procedure 7.5-02-03-02.1 (model chord Reynolds
        number; at least 2e5 asked).
+
+pandas is imported inside :func:`scale_open_water`, so that building the command line's parsers
+at start does not load it.
 """
 
 from __future__ import annotations
@@ -31,6 +34,7 @@ from fluids_props.water import fresh_water_si
 from similitude.correlations import propeller_scaling as _ps
 from similitude.errors import InputError
 from similitude.prediction.runs import OpenWaterRuns
+from similitude.units import to_si
 
 MIN_CHORD_REYNOLDS = 2.0e5
 """Smallest model chord Reynolds number at 0.75 R asked for open-water tests (ITTC
@@ -89,8 +93,6 @@ class PropellerParticulars:
         scale : float
             λ of the model propeller [-].
         """
-        from similitude.units import to_si
-
         keys = {"diameter": "diameter", "pitch_ratio": "pitch_diameter",
                 "chord_ratio": "chord_diameter", "blades": "blades",
                 "thickness_ratio": "thickness_chord", "roughness": "blade_roughness"}

@@ -2,8 +2,8 @@
 
 The data the after-test stage works on, whatever file they came from: the readers
 (:mod:`similitude.readers.measured`) build these from CSV or xlsx files, a notebook may build
-them directly from arrays. Also here: the run ids of the test plan and the note drawn when a
-measured model speed strays from the planned one.
+them directly from arrays. Also here: the runs of the test plan (:class:`PlannedRuns`) and the
+note drawn when a measured model speed strays from the planned one.
 
 pandas is imported inside ``to_frame`` only: the command line builds every command's parser at
 start, and the measured-data classes must not make that start pay for pandas.
@@ -17,6 +17,8 @@ from dataclasses import dataclass
 from typing import Any
 
 import numpy as np
+
+from similitude.errors import InputError
 
 
 def run_id(value: Any) -> str:
@@ -136,6 +138,40 @@ class OpenWaterRuns:
         return pd.DataFrame(data)
 
 
+@dataclass(frozen=True, eq=False)
+class PlannedRuns:
+    """The runs of the test plan, as the after-test stage compares them with the measured ones.
+
+    Attributes
+    ----------
+    run : tuple of str
+        Run ids of the plan's matrix (as text, see :func:`run_id`).
+    model_speed : ndarray
+        The planned model speed of each run [m/s].
+    scale : float
+        λ of the plan [-].
+    """
+
+    run: tuple[str, ...]
+    model_speed: np.ndarray
+    scale: float
+
+    def __post_init__(self) -> None:
+        object.__setattr__(self, "run", tuple(run_id(r) for r in self.run))
+        object.__setattr__(self, "model_speed", np.asarray(self.model_speed, dtype=float))
+        object.__setattr__(self, "scale", float(self.scale))
+        if len(self.run) != len(self.model_speed):
+            raise InputError(f"planned runs: {len(self.run)} run ids and "
+                             f"{len(self.model_speed)} model speeds; expected one speed per run")
+
+    @classmethod
+    def from_plan(cls, plan) -> PlannedRuns:
+        """The runs of a :class:`similitude.planning.planner.Plan`: its matrix's ``run`` and
+        ``model speed [m/s]`` columns and its scale."""
+        matrix = plan.matrix
+        return cls(tuple(matrix["run"]), matrix["model speed [m/s]"], plan.scale)
+
+
 def planned_speed_notes(runs: ResistanceRuns, plan_runs: Iterable[Any],
                         planned_speeds: Iterable[float], tolerance: float = 0.02) -> list[str]:
     """Notes on runs whose measured model speed differs from the plan's by more than
@@ -163,6 +199,7 @@ def planned_speed_notes(runs: ResistanceRuns, plan_runs: Iterable[Any],
 
 __all__ = [
     "OpenWaterRuns",
+    "PlannedRuns",
     "ResistanceRuns",
     "planned_speed_notes",
     "run_id",

@@ -17,6 +17,9 @@ The result is a standard uncertainty (coverage factor 1) and an expanded one (fa
 form-factor concept, the allowances) are not included: it is an estimate of the measurement's
 share only.
 
+pandas is imported inside :func:`propagate`, so that building the command line's parsers at
+start does not load it.
+
 References
 ----------
 .. [1] JCGM 100:2008, "Evaluation of measurement data - Guide to the expression of uncertainty

@@ -7,12 +7,16 @@ C_TS, R_TS, P_E), ``Results``, ``Uncertainty`` and ``Open water`` when given, an
 (C_T and C_F against Froude number; P_E against ship speed; K_T, K_Q, η_0 against J).
 
 The file is written atomically and never overwrites an existing file unless asked
-(:mod:`similitude.report.atomic`). openpyxl is imported inside the functions.
+(:mod:`similitude.report.atomic`).
+
+openpyxl and pandas are imported inside the functions: the command line builds every
+command's parser at start (and so imports this module), and that start must not pay for them.
 """
 
 from __future__ import annotations
 
 import math
+import re
 from pathlib import Path
 from typing import Any
 
@@ -116,8 +120,6 @@ def _add_formulas(ws, columns, first: int, last: int, formulas, constants) -> No
     constants : sequence of (name, value)
         Written in a small block to the right and referenced absolutely.
     """
-    import re
-
     from openpyxl.styles import Font
     from openpyxl.utils import get_column_letter
 
@@ -162,13 +164,29 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
     -------
     openpyxl.Workbook
     """
-    import pandas as pd
     from openpyxl import Workbook
-    from openpyxl.styles import Font
 
     e = extrapolation
     wb = Workbook()
-    ws = wb.active
+    _readme_sheet(wb.active, e)
+    _inputs_sheet(wb.create_sheet("Inputs"), e)
+    _tank_sheet(wb.create_sheet("Tank corrections"), e)
+    _form_factor_sheet(wb.create_sheet("Form factor"), e)
+    _model_sheet(wb.create_sheet("Model scale"), e)
+    _full_scale_sheet(wb.create_sheet("Full scale"), e)
+    _write_frame(wb.create_sheet("Results"), e.results)
+    if uncertainty is not None:
+        _uncertainty_sheet(wb.create_sheet("Uncertainty"), uncertainty)
+    if open_water is not None:
+        _open_water_sheet(wb.create_sheet("Open water"), open_water)
+    _charts_sheet(wb.create_sheet("Charts"), e)
+    return wb
+
+
+def _readme_sheet(ws, e) -> None:
+    """Method, revision, the data's source (labelled when synthetic), cautions and notes."""
+    from openpyxl.styles import Font
+
     ws.title = "Read me"
     ws.cell(row=1, column=1, value="Full-scale extrapolation of measured model resistance"
             ).font = Font(bold=True, size=14)
@@ -184,7 +202,11 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
                        "Cautions")
     _write_pairs(ws, [(f"note {i + 1}", n) for i, n in enumerate(e.notes)], row, "Notes")
 
-    ws = wb.create_sheet("Inputs")
+
+def _inputs_sheet(ws, e) -> None:
+    """The ship, the options and the measured runs."""
+    from openpyxl.styles import Font
+
     ship = e.ship
     row = _write_pairs(ws, [
         ("waterline length L_WL [m]", ship.length),
@@ -220,16 +242,25 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
     ws.cell(row=row, column=1, value="Measured runs").font = Font(bold=True)
     _write_frame(ws, e.runs.to_frame(), row + 1)
 
-    model = e.model
-    tank_cols = ["run", "carriage speed [m/s]", "measured resistance [N]",
+
+_TANK_COLUMNS = ("run", "carriage speed [m/s]", "measured resistance [N]",
                  "stimulator drag [N]", "resistance used [N]", "blockage ratio m [-]",
                  "depth Froude number [-]", "blockage speed correction dV/V [-]",
                  "model speed [m/s]", "water temperature [degC]", "water density [kg/m^3]",
                  "C_TM at test temperature [-]",
                  "C_FM at test temperature [-]", "C_FM at 15 degC [-]", "C_TM at 15 degC [-]",
-                 "R_TM at 15 degC [N]"]
-    ws = wb.create_sheet("Tank corrections")
-    tank = model[[c for c in tank_cols if c in model.columns]]
+                 "R_TM at 15 degC [N]")
+
+_MODEL_COLUMNS = ("run", "model speed [m/s]", "Froude number [-]", "model Reynolds number [-]",
+                  "water density [kg/m^3]", "kinematic viscosity [m^2/s]",
+                  "C_TM at test temperature [-]", "C_FM at test temperature [-]",
+                  "C_TM at 15 degC [-]", "C_FM at 15 degC [-]", "C_R [-]", "sinkage [m]",
+                  "trim [deg]")
+
+
+def _tank_sheet(ws, e) -> None:
+    """Stimulator drag, blockage and temperature correction, with audit formulas."""
+    tank = e.model[[c for c in _TANK_COLUMNS if c in e.model.columns]]
     first, last = _write_frame(ws, tank)
     # C_TM = R/(½ ρ S_M V²); C_TM,15 = C_TM + (1+k)(C_FM,15 − C_FM) (ITTC 7.5-02-03-01.4)
     _add_formulas(ws, list(tank.columns), first, last, (
@@ -242,7 +273,11 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
     ), (("model wetted surface [m^2]", e.ship.model_wetted_surface),
         ("form factor k [-]", e.form_factor)))
 
-    ws = wb.create_sheet("Form factor")
+
+def _form_factor_sheet(ws, e) -> None:
+    """Prohaska's fit: its statistics, every point with its residual, and the plot."""
+    from openpyxl.styles import Font
+
     row = _write_pairs(ws, list(e.fit_summary().items()), 1, "Form factor")
     ws.cell(row=row, column=1, value="Prohaska plot: C_TM/C_FM = (1+k) + y Fn^n/C_FM").font = (
         Font(bold=True))
@@ -254,15 +289,13 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
         _add_series(ch, ws, 3, 6, first, last, first - 1)
         ws.add_chart(ch, f"J{row + 1}")
 
-    ws = wb.create_sheet("Model scale")
-    model_cols = ["run", "model speed [m/s]", "Froude number [-]", "model Reynolds number [-]",
-                  "water density [kg/m^3]", "kinematic viscosity [m^2/s]",
-                  "C_TM at test temperature [-]", "C_FM at test temperature [-]",
-                  "C_TM at 15 degC [-]", "C_FM at 15 degC [-]", "C_R [-]", "sinkage [m]",
-                  "trim [deg]"]
-    _write_frame(ws, model[[c for c in model_cols if c in model.columns]])
 
-    ws = wb.create_sheet("Full scale")
+def _model_sheet(ws, e) -> None:
+    _write_frame(ws, e.model[[c for c in _MODEL_COLUMNS if c in e.model.columns]])
+
+
+def _full_scale_sheet(ws, e) -> None:
+    """The ship-scale steps, with audit formulas for C_TS and P_E."""
     first, last = _write_frame(ws, e.full_scale)
     # C_TS and P_E by ITTC 7.5-02-03-01.4, from the cells of the row
     _add_formulas(ws, list(e.full_scale.columns), first, last, (
@@ -275,46 +308,48 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
     ), (("wetted surface S [m^2]", e.ship.wetted_surface),
         ("ship water density [kg/m^3]", e.arrays["rho_s"])))
 
-    ws = wb.create_sheet("Results")
-    first, last = _write_frame(ws, e.results)
 
-    if uncertainty is not None:
-        ws = wb.create_sheet("Uncertainty")
-        u = uncertainty.inputs
-        row = _write_pairs(ws, [
-            ("method", uncertainty.method),
-            ("u(model speed) [m/s]", u.speed),
-            ("u(resistance) [N]", u.resistance),
-            ("u(resistance), relative [%]", 100 * u.resistance_relative),
-            ("u(water temperature) [K]", u.temperature),
-            ("u(form factor k) [-]", u.form_factor),
-        ], 1, "Standard uncertainties of the inputs")
-        _write_frame(ws, uncertainty.table, row)
+def _uncertainty_sheet(ws, uncertainty) -> None:
+    u = uncertainty.inputs
+    row = _write_pairs(ws, [
+        ("method", uncertainty.method),
+        ("u(model speed) [m/s]", u.speed),
+        ("u(resistance) [N]", u.resistance),
+        ("u(resistance), relative [%]", 100 * u.resistance_relative),
+        ("u(water temperature) [K]", u.temperature),
+        ("u(form factor k) [-]", u.form_factor),
+    ], 1, "Standard uncertainties of the inputs")
+    _write_frame(ws, uncertainty.table, row)
 
-    if open_water is not None:
-        ws = wb.create_sheet("Open water")
-        p = open_water.propeller
-        row = _write_pairs(ws, [
-            ("ship propeller diameter [m]", p.diameter), ("scale [-]", p.scale),
-            ("P/D at 0.75R [-]", p.pitch_diameter), ("c/D at 0.75R [-]", p.chord_diameter),
-            ("blades Z", p.blades), ("t/c at 0.75R [-]", p.thickness_chord),
-            ("blade roughness k_p [um]", p.blade_roughness * 1e6),
-            *[(f"note {i + 1}", n) for i, n in enumerate(open_water.notes)],
-        ], 1, "Propeller")
-        ow = open_water.table.sort_values("advance ratio J [-]")
-        ow_first, ow_last = _write_frame(ws, ow, row)
-        ch = _scatter("Open water: model (points) and ship (lines)", "J [-]", "K_T, 10 K_Q, eta_0")
-        ow10 = ow.assign(**{"10 K_Q model [-]": 10 * ow["K_Q model [-]"],
-                            "10 K_Q ship [-]": 10 * ow["K_Q ship [-]"]})
-        cols = ["advance ratio J [-]", "K_T model [-]", "10 K_Q model [-]", "eta_0 model [-]",
-                "K_T ship [-]", "10 K_Q ship [-]", "eta_0 ship [-]"]
-        c0 = len(ow.columns) + 2
-        cf, cl = _write_frame(ws, ow10[cols], row, c0)
-        for j in range(1, 7):
-            _add_series(ch, ws, c0, c0 + j, cf, cl, cf - 1, marker_only=j <= 3)
-        ws.add_chart(ch, f"A{ow_last + 3}")
 
-    ws = wb.create_sheet("Charts")
+def _open_water_sheet(ws, open_water) -> None:
+    """The propeller, the model and ship characteristics, and their chart."""
+    p = open_water.propeller
+    row = _write_pairs(ws, [
+        ("ship propeller diameter [m]", p.diameter), ("scale [-]", p.scale),
+        ("P/D at 0.75R [-]", p.pitch_diameter), ("c/D at 0.75R [-]", p.chord_diameter),
+        ("blades Z", p.blades), ("t/c at 0.75R [-]", p.thickness_chord),
+        ("blade roughness k_p [um]", p.blade_roughness * 1e6),
+        *[(f"note {i + 1}", n) for i, n in enumerate(open_water.notes)],
+    ], 1, "Propeller")
+    ow = open_water.table.sort_values("advance ratio J [-]")
+    ow_first, ow_last = _write_frame(ws, ow, row)
+    ch = _scatter("Open water: model (points) and ship (lines)", "J [-]", "K_T, 10 K_Q, eta_0")
+    ow10 = ow.assign(**{"10 K_Q model [-]": 10 * ow["K_Q model [-]"],
+                        "10 K_Q ship [-]": 10 * ow["K_Q ship [-]"]})
+    cols = ["advance ratio J [-]", "K_T model [-]", "10 K_Q model [-]", "eta_0 model [-]",
+            "K_T ship [-]", "10 K_Q ship [-]", "eta_0 ship [-]"]
+    c0 = len(ow.columns) + 2
+    cf, cl = _write_frame(ws, ow10[cols], row, c0)
+    for j in range(1, 7):
+        _add_series(ch, ws, c0, c0 + j, cf, cl, cf - 1, marker_only=j <= 3)
+    ws.add_chart(ch, f"A{ow_last + 3}")
+
+
+def _charts_sheet(ws, e) -> None:
+    """C_T and C_F against Froude number; P_E against ship speed."""
+    import pandas as pd
+
     a = e.arrays
     order = np.argsort(a["froude"])
     chart_data = pd.DataFrame({
@@ -337,7 +372,6 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None):
     ch = _scatter("Effective power against ship speed", "ship speed [kn]", "P_E [kW]")
     _add_series(ch, ws, 7, 8, first, last, 1)
     ws.add_chart(ch, "J22")
-    return wb
 
 
 def write_results(path, extrapolation, uncertainty=None, open_water=None,

@@ -5,7 +5,7 @@ The data the after-test stage works on, whatever file they came from: the reader
 them directly from arrays. Also here: the runs of the test plan (:class:`PlannedRuns`) and the
 note drawn when a measured model speed strays from the planned one.
 
-pandas is imported inside ``to_frame`` only: the command line builds every command's parser at
+pandas is imported inside the frame builder only: the command line builds every command's parser at
 start, and the measured-data classes must not make that start pay for pandas.
 """
 
@@ -35,6 +35,13 @@ def run_id(value: Any) -> str:
     except ValueError:
         return text
     return str(int(number)) if math.isfinite(number) and number.is_integer() else text
+
+
+def _frame(columns: dict[str, Any]):
+    """A DataFrame of the columns that are not None."""
+    import pandas as pd
+
+    return pd.DataFrame({name: values for name, values in columns.items() if values is not None})
 
 
 @dataclass(frozen=True, eq=False)
@@ -70,22 +77,16 @@ class ResistanceRuns:
         return len(self.run)
 
     def to_frame(self):
-        """The runs as a DataFrame with units in the headers."""
-        import pandas as pd
-
-        data: dict[str, Any] = {
+        """The runs as a DataFrame with units in the headers (unmeasured columns left out)."""
+        return _frame({
             "run": list(self.run),
             "model speed [m/s]": self.speed,
             "total resistance [N]": self.resistance,
             "water temperature [degC]": self.temperature - 273.15,
-        }
-        if self.sinkage is not None:
-            data["sinkage [m]"] = self.sinkage
-        if self.trim is not None:
-            data["trim [deg]"] = self.trim
-        if self.stimulator_drag is not None:
-            data["stimulator drag [N]"] = self.stimulator_drag
-        return pd.DataFrame(data)
+            "sinkage [m]": self.sinkage,
+            "trim [deg]": self.trim,
+            "stimulator drag [N]": self.stimulator_drag,
+        })
 
 
 @dataclass(frozen=True, eq=False)
@@ -120,22 +121,17 @@ class OpenWaterRuns:
     source: str = ""
 
     def to_frame(self):
-        """The runs as a DataFrame with units in the headers."""
-        import pandas as pd
-
-        data: dict[str, Any] = {
+        """The runs as a DataFrame with units in the headers (unmeasured columns left out)."""
+        return _frame({
             "run": list(self.run),
             "advance ratio J [-]": self.advance_ratio,
             "K_T model [-]": self.thrust_coefficient,
             "K_Q model [-]": self.torque_coefficient,
-        }
-        if self.rotation_rate is not None:
-            data["rotation rate [1/s]"] = self.rotation_rate
-        if self.advance_speed is not None:
-            data["advance speed [m/s]"] = self.advance_speed
-        if self.temperature is not None:
-            data["water temperature [degC]"] = self.temperature - 273.15
-        return pd.DataFrame(data)
+            "rotation rate [1/s]": self.rotation_rate,
+            "advance speed [m/s]": self.advance_speed,
+            "water temperature [degC]": (None if self.temperature is None
+                                         else self.temperature - 273.15),
+        })
 
 
 @dataclass(frozen=True, eq=False)

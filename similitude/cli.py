@@ -11,17 +11,27 @@ import argparse
 import importlib
 import sys
 
+from similitude.commands.common import CAUTION
 from similitude.errors import BAD_INPUT_ERRORS, InputError
 
 COMMANDS = ("plan", "props", "groups", "balance", "extrapolate")
 
-CAUTION = (
-    "Estimates only: check validity ranges, and defer to the ITTC recommended procedures, "
-    "class rules, local codes and licensed practice."
-)
+
+def commands_to_load(argv: list[str]) -> tuple[str, ...]:
+    """The commands whose modules a run needs: the one ``argv`` names, else all of them.
+
+    Only the named command's module is imported, so a run loads no other command's stages;
+    the top-level help, a missing or an unknown command get every parser (argparse lists them).
+    """
+    for arg in argv:
+        if arg == "--debug":  # the one top-level option that may stand before the command
+            continue
+        return (arg,) if arg in COMMANDS else COMMANDS
+    return COMMANDS
 
 
-def build_parser() -> argparse.ArgumentParser:
+def build_parser(names: tuple[str, ...] = COMMANDS) -> argparse.ArgumentParser:
+    """The argument parser with the sub-commands ``names`` (default: all)."""
     parser = argparse.ArgumentParser(
         prog="similitude",
         description="Plan scale-model tests: fluid properties, dimensionless groups, model "
@@ -30,25 +40,21 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--debug", action="store_true", help="show tracebacks of failures")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
-    for name in COMMANDS:
-        try:
-            module = importlib.import_module(f"similitude.commands.{name}")
-        except ModuleNotFoundError as exc:
-            if exc.name == f"similitude.commands.{name}":
-                continue  # command not built yet
-            raise
-        module.add_parser(sub)
+    for name in names:
+        # imported by name, on demand: each command module pulls in the stages it needs
+        importlib.import_module(f"similitude.commands.{name}").add_parser(sub)
     return parser
 
 
 def main(argv: list[str] | None = None) -> int:
     """Run the command line; returns the exit code."""
-    parser = build_parser()
+    argv = sys.argv[1:] if argv is None else list(argv)
+    parser = build_parser(commands_to_load(argv))
     try:
         args = parser.parse_args(argv)
     except SystemExit as exc:  # argparse: --help (0) or usage error (2)
         return int(exc.code or 0)
-    if not getattr(args, "command", None):
+    if not args.command:
         parser.print_help()
         return 2
     try:
@@ -62,7 +68,7 @@ def main(argv: list[str] | None = None) -> int:
         print("error: interrupted", file=sys.stderr)
         return 1
     except Exception as exc:  # anything else: one line, traceback only on request
-        if getattr(args, "debug", False):
+        if args.debug:
             raise
         print(f"error: {exc.__class__.__name__}: {exc}", file=sys.stderr)
         return 1

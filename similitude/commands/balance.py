@@ -29,11 +29,11 @@ records with the dominant balances and the regime changes.
 from __future__ import annotations
 
 import argparse
-import json
-import math
 import tomllib
 from pathlib import Path
 
+from similitude.commands.common import json_text
+from similitude.dimensional.balance import term_balance
 from similitude.errors import InputError
 
 KEYS = ("title", "reference", "threshold", "terms", "prototype", "model")
@@ -84,24 +84,18 @@ def read_balance_file(path: str | Path) -> dict:
 
 def run(args) -> int:
     """Run ``similitude balance``; returns the exit code."""
-    from similitude.dimensional.balance import term_balance
-
     doc = read_balance_file(args.file)
     threshold = args.threshold if args.threshold is not None else doc.get("threshold", 0.01)
     result = term_balance(doc["terms"], doc["prototype"], doc.get("model"),
                           reference=doc.get("reference"), threshold=threshold)
     table = result.table
     if args.json:
-        records = []
-        for rec in table.to_dict(orient="records"):
-            records.append({k: (None if isinstance(v, float) and math.isnan(v) else v)
-                            for k, v in rec.items()})
-        print(json.dumps({
+        print(json_text({
             "title": doc.get("title"), "reference": result.reference, "unit": result.unit,
-            "threshold": result.threshold, "terms": records,
-            "dominant_prototype": list(result.dominant_prototype),
-            "dominant_model": list(result.dominant_model), "changes": list(result.changes),
-        }, indent=2, ensure_ascii=False))
+            "threshold": result.threshold, "terms": table.to_dict(orient="records"),
+            "dominant_prototype": result.dominant_prototype,
+            "dominant_model": result.dominant_model, "changes": result.changes,
+        }, keep_unicode=True))
         return 0
     if doc.get("title"):
         print(doc["title"])

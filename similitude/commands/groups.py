@@ -13,9 +13,10 @@ Examples::
 from __future__ import annotations
 
 import argparse
-import json
 from fractions import Fraction
 
+from similitude.commands.common import json_text
+from similitude.dimensional.dimensions import analyse
 from similitude.errors import InputError
 
 
@@ -65,8 +66,6 @@ def _exp_text(e) -> str:
 
 def run(args) -> int:
     """Run ``similitude groups``; returns the exit code."""
-    from similitude.dimensional.dimensions import analyse
-
     variables = parse_variable_args(args.variables)
     repeating = None
     if args.repeating is not None:
@@ -86,7 +85,7 @@ def run(args) -> int:
                 for g in result.groups
             ],
         }
-        print(json.dumps(doc, indent=2, ensure_ascii=False))
+        print(json_text(doc, keep_unicode=True))
         return 0
     n = len(result.variables)
     print(f"{n} variables, dimension-matrix rank {result.rank}: {n - result.rank} groups; "

@@ -15,6 +15,12 @@ import math
 import re
 import sys
 
+import numpy as np
+import pandas as pd
+
+import fluids_props as fp
+from fluids_props import atmosphere
+from fluids_props.units import UnitInputError, parse_quantity, si_quantity, to_si
 from similitude.constants import P_ATM
 from similitude.errors import InputError
 
@@ -75,9 +81,7 @@ def _fluid_key(name: str) -> str:
     if key.replace("-", "_") in OPTIONS:
         return key.replace("-", "_")
     try:  # any other fluid of the catalogue (optional back-ends such as coolprop:sf6)
-        from fluids_props import get_fluid
-
-        return get_fluid(name).name
+        return fp.get_fluid(name).name
     except ValueError:
         pass
     close = difflib.get_close_matches(key, list(FLUIDS), n=1, cutoff=0.6)
@@ -93,8 +97,6 @@ def expand_values(option: str, items: list[str]) -> list[float]:
     InputError
         One line per unreadable item, naming the option and the value.
     """
-    from fluids_props.units import UnitInputError, parse_quantity, to_si
-
     dim = _DIMS[option]
     out: list[float] = []
     problems: list[str] = []
@@ -137,12 +139,6 @@ def property_table(fluid: str, states: dict[str, list[float]], extrapolate: bool
 
     Columns carry their units: ``temperature [degC]``, ``density [kg/m^3]`` ...
     """
-    import numpy as np
-    import pandas as pd
-
-    import fluids_props as fp
-    from fluids_props.units import si_quantity
-
     names = [k for k in OPTIONS.get(fluid, ("temperature", "pressure")) if k in states]
     grid = list(itertools.product(*(states[k] for k in names)))
     if len(grid) > MAX_STATES:
@@ -198,10 +194,6 @@ def _opt(kw: dict, *keys: str) -> dict:
 
 def catalogue_table():
     """The fluids with kind, validity ranges and sources (a DataFrame)."""
-    import pandas as pd
-
-    import fluids_props as fp
-
     rows = []
     cli_names = {v: k for k, v in reversed(list(FLUIDS.items()))}
     infos = list(fp.list_fluids())
@@ -216,10 +208,7 @@ def catalogue_table():
     if not any(info.name == "nitrogen" for info in infos):
         rows.append({"fluid": "nitrogen", "kind": "gas", "validity": "see fluids_props.nitrogen",
                      "description": "nitrogen test gas"})
-    import importlib
-
-    atmos = importlib.import_module("fluids_props.atmosphere")
-    ranges = [v for v in vars(atmos).values() if isinstance(v, fp.Range)]
+    ranges = [v for v in vars(atmosphere).values() if isinstance(v, fp.Range)]
     rows.append({"fluid": "atmosphere", "kind": "gas",
                  "validity": "; ".join(f"{r.quantity} {r.text()}" for r in ranges)
                  or "see fluids_props.standard_atmosphere",

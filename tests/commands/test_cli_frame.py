@@ -2,8 +2,11 @@
 
 import subprocess
 import sys
+from pathlib import Path
 
-from similitude.cli import main
+import pytest
+
+from similitude.cli import COMMANDS, commands_to_load, main
 
 
 def test_help_exits_zero(capsys):
@@ -23,3 +26,41 @@ def test_module_entry_point_runs():
     out = subprocess.run([sys.executable, "-m", "similitude", "--help"], capture_output=True,
                          text=True, timeout=60)
     assert out.returncode == 0 and "usage" in out.stdout.lower()
+
+
+def test_module_entry_point_gives_the_exit_code_of_main(tmp_path):
+    missing = str(tmp_path / "missing.toml")
+    out = subprocess.run([sys.executable, "-m", "similitude", "plan", missing],
+                         capture_output=True, text=True, timeout=60)
+    assert out.returncode == main(["plan", missing]) == 2
+    assert out.stderr.startswith("error: ") and "Traceback" not in out.stderr
+
+
+def test_top_level_help_lists_every_command(capsys):
+    assert main(["--help"]) == 0
+    out = capsys.readouterr().out
+    assert all(name in out for name in COMMANDS)
+
+
+@pytest.mark.parametrize("argv, loaded", [
+    (["plan", "case.toml"], ("plan",)),
+    (["--debug", "props", "water"], ("props",)),
+    (["--help"], COMMANDS),
+    (["fly-to-the-moon"], COMMANDS),
+    ([], COMMANDS),
+])
+def test_only_the_named_command_is_loaded(argv, loaded):
+    assert commands_to_load(argv) == loaded
+
+
+def test_a_plan_run_imports_no_other_command_and_not_the_after_test_stage():
+    # what the plan command does not use stays out of its start-up (benchmarks/bench_cli_plan.py)
+    case = Path(__file__).parents[2] / "demo_cases" / "ferry_resistance.toml"
+    code = ("import sys; from similitude.cli import main; main(['plan', sys.argv[1]]); "
+            "print(sorted(m for m in sys.modules if m.startswith('similitude.commands.') "
+            "or m in ('similitude.prediction.extrapolation', 'scipy.optimize')), "
+            "file=sys.stderr)")
+    out = subprocess.run([sys.executable, "-c", code, str(case)], capture_output=True,
+                         text=True, timeout=120)
+    assert out.returncode == 0, out.stderr
+    assert out.stderr.strip() == "['similitude.commands.common', 'similitude.commands.plan']"

@@ -152,3 +152,10 @@ def test_balance_term_of_another_dimension_exits_two_naming_both(tmp_path, capsy
     assert main(["balance", str(f)]) == 2
     err = capsys.readouterr().err
     assert err.startswith("error:") and "terms.b" in err and "[length] / [time] ** 2" in err
+
+
+def test_groups_json_keeps_a_greek_symbol_as_written(capsys):
+    # the user's own symbols come back unescaped (UTF-8 JSON, RFC 8259 §8.1)
+    assert main(["groups", "ρ=kg/m^3", "V=m/s", "L=m", "μ=Pa*s", "--json"]) == 0
+    out = capsys.readouterr().out
+    assert '"ρ"' in out and json.loads(out)["variables"]["ρ"]["unit"] == "kg/m^3"

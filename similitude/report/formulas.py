@@ -25,6 +25,7 @@ References
 
 from __future__ import annotations
 
+from fluids_props import water
 from similitude.errors import InputError
 
 #: Model fluids whose properties are written as closed-form live formulas. Other fluids (air,
@@ -67,66 +68,58 @@ def kelvin(celsius_ref: str) -> str:
 
 # -- fresh water (fluids_props.water) --------------------------------------------------------
 def _water_density(t_ref: str, p_ref: str | None) -> str:
-    from fluids_props import water as w
-
-    y = f"(({t_ref}-{_num(w.T0)})/{_num(w.T_SCALE)})"
+    y = f"(({t_ref}-{_num(water.T0)})/{_num(water.T_SCALE)})"
     if p_ref is None:
-        return f"{_num(w.P_SCALE)}/({_horner(w.DENSITY_COEFFS, y)})"
+        return f"{_num(water.P_SCALE)}/({_horner(water.DENSITY_COEFFS, y)})"
     # rho = p_u / sum_{k>=1} k g_jk y^j z^(k-1), z = (p - p0)/p_u  (SR7-09 pressure derivative)
-    kmax = max(k for _, k, _ in w.GIBBS_COEFFS)
-    jmax = max(j for j, _, _ in w.GIBBS_COEFFS)
+    kmax = max(k for _, k, _ in water.GIBBS_COEFFS)
+    jmax = max(j for j, _, _ in water.GIBBS_COEFFS)
     polys = []
     for k in range(1, kmax + 1):
         c = [0.0] * (jmax + 1)
-        for j, kk, g in w.GIBBS_COEFFS:
+        for j, kk, g in water.GIBBS_COEFFS:
             if kk == k:
                 c[j] = k * g
         polys.append(_horner(c, y))
-    z = f"(({p_ref}-{_num(w.P0)})/{_num(w.P_SCALE)})"
+    z = f"(({p_ref}-{_num(water.P0)})/{_num(water.P_SCALE)})"
     s = f"({polys[-1]})"
     for poly in reversed(polys[:-1]):
         s = f"({poly})+{z}*({s})"
-    return f"{_num(w.P_SCALE)}/({s})"
+    return f"{_num(water.P_SCALE)}/({s})"
 
 
 def _water_viscosity(t_ref: str, rho_ref: str) -> str:
-    from fluids_props import water as w
-
-    inv_tb = f"({_num(w.T_CRIT)}/{t_ref})"
-    rb = f"({rho_ref}/{_num(w.RHO_STAR)})"
-    mu0 = f"100*SQRT({t_ref}/{_num(w.T_CRIT)})/({_horner(w.VISCOSITY_H0, inv_tb)})"
+    inv_tb = f"({_num(water.T_CRIT)}/{t_ref})"
+    rb = f"({rho_ref}/{_num(water.RHO_STAR)})"
+    mu0 = f"100*SQRT({t_ref}/{_num(water.T_CRIT)})/({_horner(water.VISCOSITY_H0, inv_tb)})"
     x = f"({inv_tb}-1)"
     d = f"({rb}-1)"
-    jmax = max(j for _, j, _ in w.VISCOSITY_H1)
-    imax = max(i for i, _, _ in w.VISCOSITY_H1)
+    jmax = max(j for _, j, _ in water.VISCOSITY_H1)
+    imax = max(i for i, _, _ in water.VISCOSITY_H1)
     by_j = []
     for j in range(jmax + 1):
         c = [0.0] * (imax + 1)
-        for i, jj, h in w.VISCOSITY_H1:
+        for i, jj, h in water.VISCOSITY_H1:
             if jj == j:
                 c[i] = h
         by_j.append(_horner(c, x))
     s = f"({by_j[-1]})"
     for poly in reversed(by_j[:-1]):
         s = f"({poly})+{d}*({s})"
-    return f"{_num(w.MU_STAR)}*{mu0}*EXP({rb}*({s}))"
+    return f"{_num(water.MU_STAR)}*{mu0}*EXP({rb}*({s}))"
 
 
 def _water_vapour_pressure(t_ref: str) -> str:
-    from fluids_props import water as w
-
-    tau = f"(1-{t_ref}/{_num(w.T_CRIT)})"
+    tau = f"(1-{t_ref}/{_num(water.T_CRIT)})"
     terms = "+".join(f"{_num(a)}*{tau}^{_num(e)}"
-                     for a, e in zip(w.VAPOUR_PRESSURE_A, w.VAPOUR_PRESSURE_EXPONENTS,
+                     for a, e in zip(water.VAPOUR_PRESSURE_A, water.VAPOUR_PRESSURE_EXPONENTS,
                                      strict=True))
-    return f"{_num(w.P_CRIT)}*EXP({_num(w.T_CRIT)}/{t_ref}*({terms}))"
+    return f"{_num(water.P_CRIT)}*EXP({_num(water.T_CRIT)}/{t_ref}*({terms}))"
 
 
 def _water_surface_tension(t_ref: str) -> str:
-    from fluids_props import water as w
-
-    big_b, mu, b = w.SURFACE_TENSION_COEFFS
-    tau = f"(1-{t_ref}/{_num(w.T_CRIT)})"
+    big_b, mu, b = water.SURFACE_TENSION_COEFFS
+    tau = f"(1-{t_ref}/{_num(water.T_CRIT)})"
     return f"{_num(big_b)}*{tau}^{_num(mu)}*(1+{_num(b)}*{tau})"
 
 

@@ -14,9 +14,13 @@ import math
 import pathlib
 
 import numpy as np
+import pandas as pd
 
 from similitude.constants import G0
+from similitude.correlations.friction import MIN_TURBULENT_MODEL_REYNOLDS, friction_coefficient
 from similitude.errors import InputError
+from similitude.planning.planner import Plan
+from similitude.report.atomic import write_atomic
 from similitude.units import format_scale
 
 PLOT_KINDS = ("all", "scale_window", "reynolds", "groups")
@@ -32,7 +36,7 @@ KELVIN_WIDTH_RATIO = 1.0 / (2.0 * math.tan(math.radians(19.47)))
 DEPTH_FROUDE_LIMIT = 0.6
 
 
-def scale_window(plan):
+def scale_window(plan: Plan) -> pd.DataFrame:
     """Admissible scale ratios for each facility limit of a plan.
 
     Parameters
@@ -53,8 +57,6 @@ def scale_window(plan):
     practice); model Re >= 2e6 at the lowest speed for effective turbulence stimulation (common
     practice); and the facility's own model-length limits.
     """
-    import pandas as pd
-
     case = plan.case
     proto, fac = case.prototype, case.facility
     lp = proto.length
@@ -87,8 +89,6 @@ def scale_window(plan):
                 math.sqrt(ax / (BLOCKAGE_LIMIT * fac.cross_section)), math.inf,
                 "common practice")
         nu_m = float(np.asarray(plan.model_fluid.kinematic_viscosity_si))
-        from similitude.correlations.friction import MIN_TURBULENT_MODEL_REYNOLDS
-
         add(f"model Reynolds number >= {MIN_TURBULENT_MODEL_REYNOLDS:.0e} at lowest speed",
             1.0, (vmin_p * lp / (nu_m * MIN_TURBULENT_MODEL_REYNOLDS)) ** (2.0 / 3.0),
             "common practice (turbulence stimulation)")
@@ -111,7 +111,28 @@ def _need_matplotlib():
                          "(pip install 'similitude[plot]')") from exc
 
 
-def _draw_window(plan, ax) -> None:
+def _figure_axes(n: int, kind: str, ax, to_file: bool):
+    """(figure, list of ``n`` axes): the axes given, or a new figure of ``n`` panels."""
+    if ax is not None:
+        axes = list(ax) if isinstance(ax, (list, tuple, np.ndarray)) else [ax]
+        if len(axes) != n:
+            raise InputError(f"ax: {len(axes)} axes given; expected {n} for kind {kind!r}")
+        return axes[0].figure, axes
+    size = (13, 5) if n == 2 else (7, 5)
+    if to_file:  # a bare Figure on the Agg canvas: no display or GUI backend needed
+        from matplotlib.backends.backend_agg import FigureCanvasAgg
+        from matplotlib.figure import Figure
+
+        fig = Figure(figsize=size, layout="constrained")
+        FigureCanvasAgg(fig)
+    else:  # pyplot, so a notebook shows the figure inline
+        import matplotlib.pyplot as plt
+
+        fig = plt.figure(figsize=size, layout="constrained")
+    return fig, list(np.atleast_1d(fig.subplots(1, n)))
+
+
+def _draw_window(plan: Plan, ax) -> None:
     win = scale_window(plan)
     y = np.arange(len(win))
     lam = float(plan.scale)
@@ -135,9 +156,7 @@ def _draw_window(plan, ax) -> None:
     ax.set_title("Scale-selection window (admissible ranges per limit)")
 
 
-def _draw_reynolds(plan, ax) -> None:
-    from similitude.correlations.friction import friction_coefficient
-
+def _draw_reynolds(plan: Plan, ax) -> None:
     m = plan.matrix
     by = m.groupby("prototype speed [m/s]", sort=True).first().reset_index()
     re_m = by["model Reynolds number [-]"].to_numpy(float)
@@ -160,7 +179,7 @@ def _draw_reynolds(plan, ax) -> None:
     ax.grid(True, which="both", alpha=0.3)
 
 
-def plot_plan(plan, kind: str = "all", ax=None, path=None, overwrite: bool = False):
+def plot_plan(plan: Plan, kind: str = "all", ax=None, path=None, overwrite: bool = False):
     """Draw the plots of a plan.
 
     Parameters
@@ -184,32 +203,12 @@ def plot_plan(plan, kind: str = "all", ax=None, path=None, overwrite: bool = Fal
     if kind == "groups":  # what Plan.plot() passes by default: both panels
         kind = "all"
     _need_matplotlib()
-    n = 2 if kind == "all" else 1
-    if ax is not None:
-        axes = list(ax) if isinstance(ax, (list, tuple, np.ndarray)) else [ax]
-        if len(axes) != n:
-            raise InputError(f"ax: {len(axes)} axes given; expected {n} for kind {kind!r}")
-        fig = axes[0].figure
-    else:
-        size = (13, 5) if n == 2 else (7, 5)
-        if path is not None:
-            from matplotlib.backends.backend_agg import FigureCanvasAgg
-            from matplotlib.figure import Figure
-
-            fig = Figure(figsize=size, layout="constrained")
-            FigureCanvasAgg(fig)
-        else:
-            import matplotlib.pyplot as plt
-
-            fig = plt.figure(figsize=size, layout="constrained")
-        axes = list(np.atleast_1d(fig.subplots(1, n)))
+    fig, axes = _figure_axes(2 if kind == "all" else 1, kind, ax, to_file=path is not None)
     if kind in ("all", "scale_window"):
         _draw_window(plan, axes[0])
     if kind in ("all", "reynolds"):
         _draw_reynolds(plan, axes[-1])
     if path is not None:
-        from similitude.report.atomic import write_atomic
-
         target = pathlib.Path(path)
         fmt = target.suffix.lstrip(".") or "png"
         write_atomic(target, lambda tmp: fig.savefig(tmp, format=fmt, dpi=120),

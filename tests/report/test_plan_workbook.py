@@ -19,7 +19,7 @@ from similitude.planning.case import (
     WaveCondition,
 )
 from similitude.planning.facilities import Facility
-from similitude.report import plan_workbook
+from similitude.report import plan_workbook, sheets
 
 
 def _tank_case(**matrix):
@@ -217,7 +217,7 @@ def test_write_interrupted_while_completing_the_long_tables_leaves_no_file(plan,
     def broken_rows(table):
         raise KeyboardInterrupt
 
-    monkeypatch.setattr(plan_workbook, "_rows_xml", broken_rows)
+    monkeypatch.setattr(sheets, "_rows_xml", broken_rows)
     with pytest.raises(KeyboardInterrupt):
         plan_workbook.write_plan(plan, path)
     assert list(tmp_path.iterdir()) == []
@@ -245,14 +245,6 @@ def test_a_ten_thousand_run_matrix_is_written_completely(tmp_path):
         runs = z.read(f"xl/worksheets/sheet{names.index('Runs') + 1}.xml").decode()
     assert runs.count("<row ") == 10_001
     assert re.search(r'<dimension ref="A1:[A-Z]+10001"/>', runs)
-
-
-def test_number_format_follows_the_quantity():
-    assert plan_workbook.number_format("model Reynolds number [-]") == "0.0000E+00"
-    assert plan_workbook.number_format("run") == "0"
-    assert plan_workbook.number_format("prototype speed [kn]") == "0.00"
-    assert plan_workbook.number_format("model speed [m/s]", np.array([1.2, 3.4])) == "0.000"
-    assert plan_workbook.number_format("run distance [m]", np.array([150.0, 190.0])) == "0.0"
 
 
 def test_basis_sheet_names_the_sources_and_assumptions(written):
@@ -301,18 +293,14 @@ def test_reynolds_number_cells_of_the_similarity_sheet_are_scientific(written):
             assert "E+" in ws.cell(row=r, column=heads.index(name) + 1).number_format
 
 
-def test_weber_numbers_get_a_scientific_format():
-    assert "E+" in plan_workbook.number_format("model Weber number [-]")
-
-
 def test_matched_cells_are_booleans_shown_as_yes_or_no(written, plan):
     _, wb = written
     ws = wb["Similarity"]
     col = [c.value for c in ws[1]].index("matched") + 1
     cells = [ws.cell(row=2 + i, column=col) for i in range(len(plan.groups))]
     assert [c.value for c in cells] == [bool(v) for v in plan.groups["matched"]]
-    assert all(c.number_format == plan_workbook.BOOLEAN_FORMAT for c in cells)
-    assert plan_workbook.BOOLEAN_FORMAT == '"yes";"yes";"no"'
+    assert all(c.number_format == sheets.BOOLEAN_FORMAT for c in cells)
+    assert sheets.BOOLEAN_FORMAT == '"yes";"yes";"no"'
 
 
 def test_matched_cells_are_centred_apart_from_the_text_beside_them(written):
@@ -328,29 +316,16 @@ def test_run_feasible_cells_of_the_runs_sheet_are_booleans_shown_as_yes_or_no(wr
     col = [c.value for c in ws[1]].index("run feasible") + 1
     cell = ws.cell(row=2, column=col)
     assert isinstance(cell.value, bool)
-    assert cell.number_format == plan_workbook.BOOLEAN_FORMAT
-
-
-def test_a_short_text_takes_one_line():
-    assert plan_workbook.wrapped_lines("short", 40) == 1
-
-
-def test_a_long_text_takes_at_least_its_length_over_the_width_in_lines():
-    text = "word " * 60  # 300 characters
-    assert plan_workbook.wrapped_lines(text, 50) >= 300 // 50
-
-
-def test_each_line_break_starts_a_new_line():
-    assert plan_workbook.wrapped_lines("a\nb\nc", 40) == 3
+    assert cell.number_format == sheets.BOOLEAN_FORMAT
 
 
 def _assert_fits(ws, row: int, column: int):
     cell = ws.cell(row=row, column=column)
     assert cell.alignment.wrap_text
     width = ws.column_dimensions[openpyxl.utils.get_column_letter(column)].width
-    lines = plan_workbook.wrapped_lines(cell.value, width)
+    lines = sheets.wrapped_lines(cell.value, width)
     assert ws.row_dimensions[row].height is not None
-    assert ws.row_dimensions[row].height >= lines * plan_workbook.LINE_HEIGHT
+    assert ws.row_dimensions[row].height >= lines * sheets.LINE_HEIGHT
 
 
 def test_overview_gives_the_caution_and_each_note_its_own_wrapped_row_of_fitting_height(
@@ -370,7 +345,7 @@ def test_the_long_caution_on_the_overview_is_more_than_one_line_high(written):
     _, wb = written
     ws = wb["Overview"]
     (r,) = _rows_of(ws, 2, plan_workbook.CAUTION)
-    assert ws.row_dimensions[r].height >= 2 * plan_workbook.LINE_HEIGHT
+    assert ws.row_dimensions[r].height >= 2 * sheets.LINE_HEIGHT
 
 
 def test_conflict_consequences_and_details_wrap_in_rows_of_fitting_height(written, plan):

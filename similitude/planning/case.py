@@ -12,6 +12,7 @@ from dataclasses import dataclass, field
 
 from similitude.constants import P_ATM
 from similitude.correlations.friction import FRICTION_LINES
+from similitude.correlations.waves import SPECTRA
 from similitude.errors import InputError
 from similitude.planning.facilities import Facility
 
@@ -39,6 +40,12 @@ MATCHABLE_GROUPS = (
 
 OBJECTIVES = ("largest_model", "least_mismatch", "smallest_model")
 
+#: How the speeds of a run matrix are given: prototype speeds, Froude numbers or model speeds.
+SPEED_BASES = ("prototype", "froude", "model")
+
+#: Kinds of wave condition: regular waves, or an irregular sea given by its spectrum.
+WAVE_KINDS = ("regular", "irregular")
+
 #: Dimension keys of :class:`Prototype` that are areas [m^2] or volumes [m^3]; every other key
 #: is a length [m]. Under geometric similarity they scale as lambda^2 and lambda^3.
 AREA_KEYS = ("wetted_surface", "midship_area", "frontal_area", "lateral_area",
@@ -57,6 +64,16 @@ def dimension_power(key: str) -> int:
     if key in VOLUME_KEYS or key.endswith("_volume"):
         return 3
     return 1
+
+
+def _at_least(name: str, value, low: float, expected: str) -> None:
+    """A finite number >= low, or an InputError naming the field, the value and ``expected``."""
+    try:
+        ok = math.isfinite(value) and value >= low
+    except TypeError:
+        ok = False
+    if not ok:
+        raise InputError(f"{name}: {value!r} is not valid; expected {expected}")
 
 
 def _positive(name: str, value: float | None, allow_none: bool = True) -> None:
@@ -286,7 +303,7 @@ class WaveCondition:
     Attributes
     ----------
     kind : str
-        ``"regular"`` or ``"irregular"``.
+        One of :data:`WAVE_KINDS`.
     period : float or None
         Regular-wave period [s].
     length_ratio : float or None
@@ -300,7 +317,8 @@ class WaveCondition:
     peak_period : float or None
         Irregular sea T_p [s].
     spectrum : str
-        ``"jonswap"`` or ``"ittc"`` (two-parameter Bretschneider / ITTC 1978).
+        One of :data:`similitude.correlations.waves.SPECTRA`: ``"jonswap"`` or ``"ittc"``
+        (two-parameter Bretschneider / ITTC 1978).
     gamma : float
         JONSWAP peak enhancement factor [-].
     duration : float or None
@@ -331,7 +349,7 @@ class MatrixSpec:
         Speeds of the runs, read according to ``speed_basis``: prototype speeds [m/s],
         Froude numbers [-] or model speeds [m/s]. Empty: the prototype's operating speeds.
     speed_basis : str
-        ``"prototype"``, ``"froude"`` or ``"model"``.
+        One of :data:`SPEED_BASES`: ``"prototype"``, ``"froude"`` or ``"model"``.
     loading : tuple of LoadingCondition
         Loading conditions (empty: the design condition only).
     headings : tuple of float
@@ -354,6 +372,43 @@ class MatrixSpec:
     waves: tuple[WaveCondition, ...] = ()
     repeats: int = 1
     waiting_time: float | None = None
+
+    def __post_init__(self) -> None:
+        try:
+            whole = int(self.repeats) == self.repeats and self.repeats >= 1
+        except (TypeError, ValueError, OverflowError):
+            whole = False
+        if not whole:
+            raise InputError(f"matrix.repeats: {self.repeats!r} is not valid; expected an "
+                             "integer >= 1")
+        _at_least("matrix.current", self.current, 0.0, "a speed >= 0")
+        if self.waiting_time is not None:
+            _at_least("matrix.waiting_time", self.waiting_time, 0.0, "a time >= 0")
+        if self.speed_basis not in SPEED_BASES:
+            raise InputError(f"matrix.speed_basis: {self.speed_basis!r} is unknown; expected "
+                             "one of " + ", ".join(SPEED_BASES))
+        for i, v in enumerate(self.speeds):
+            _at_least(f"matrix.speeds[{i}]", v, 0.0, "a finite speed >= 0")
+        for i, w in enumerate(self.waves):
+            _check_wave(w, f"matrix.waves[{i}]")
+
+
+def _check_wave(w: WaveCondition, where: str) -> None:
+    """The parameters a wave condition of its kind needs."""
+    if w.kind not in WAVE_KINDS:
+        raise InputError(f"{where}.kind: {w.kind!r} is unknown; expected one of "
+                         + ", ".join(WAVE_KINDS))
+    if w.kind == "regular":
+        if w.period is None and w.length_ratio is None:
+            raise InputError(f"{where}.period: missing; expected a period or a length_ratio")
+        if w.height is None and w.steepness is None:
+            raise InputError(f"{where}.height: missing; expected a height or a steepness")
+        return
+    if w.significant_height is None or w.peak_period is None:
+        raise InputError(f"{where}: irregular sea needs significant_height and peak_period")
+    if w.spectrum not in SPECTRA:
+        raise InputError(f"{where}.spectrum: {w.spectrum!r} is unknown; expected one of "
+                         + ", ".join(SPECTRA))
 
 
 @dataclass(frozen=True)

@@ -32,12 +32,17 @@ from collections.abc import Mapping
 from pathlib import Path
 from typing import Any
 
+from fluids_props import get_fluid, list_fluids
 from similitude.constants import P_ATM
+from similitude.correlations.friction import FRICTION_LINES
+from similitude.correlations.waves import SPECTRA
 from similitude.errors import BAD_INPUT_ERRORS, InputError
 from similitude.planning.case import (
     MATCHABLE_GROUPS,
     OBJECTIVES,
     PROTOTYPE_KINDS,
+    SPEED_BASES,
+    WAVE_KINDS,
     Case,
     FluidSpec,
     LoadingCondition,
@@ -131,9 +136,6 @@ LOADING_KEYS = ("name", "draught", "trim", "displacement")
 WAVE_KEYS = ("name", "kind", "period", "length_ratio", "height", "steepness",
              "significant_height", "peak_period", "spectrum", "gamma", "duration")
 TOP_KEYS = ("about", "prototype", "facility", "matching", "runs")
-SPEED_BASES = ("prototype", "froude", "model")
-WAVE_KINDS = ("regular", "irregular")
-SPECTRA = ("jonswap", "ittc")
 
 #: Every key of a case file by table, for documentation and "did you mean" hints.
 CASE_KEYS: dict[str, tuple[str, ...]] = {
@@ -391,14 +393,10 @@ def _si_text(si: float, dim: str, unit: str | None = None) -> str:
 # -- fluids ---------------------------------------------------------------------------------
 
 def _fluid_names() -> tuple[str, ...]:
-    from fluids_props import list_fluids
-
     return tuple(info.name for info in list_fluids())
 
 
 def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
-    from fluids_props import get_fluid
-
     t = r.table(data, path, FLUID_KEYS, required=("name", "temperature"))
     if not t and not isinstance(data, Mapping):
         return None
@@ -509,8 +507,6 @@ def _read_facility_table(r: _Reader, data: Any, path: str = "facility") -> Facil
         raw = t["fluids"] if isinstance(t["fluids"], list) else [t["fluids"]]
         fluids = []
         names = _fluid_names()
-        from fluids_props import get_fluid
-
         for i, item in enumerate(raw):
             p = _join(_join(path, "fluids"), i)
             try:
@@ -597,8 +593,6 @@ def _read_matching(r: _Reader, data: Any) -> MatchRequest | None:
     obj = r.choice(t, "choose", path, OBJECTIVES)
     if obj is not None:
         kw["objective"] = obj
-    from similitude.correlations.friction import FRICTION_LINES
-
     line = r.choice(t, "friction_line", path, tuple(FRICTION_LINES))
     if line is not None:
         kw["friction_line"] = line
@@ -717,7 +711,11 @@ def _read_runs(r: _Reader, data: Any) -> MatrixSpec | None:
                   "to have its own name")
     if not ok:
         return None
-    return MatrixSpec(**kw)
+    try:
+        return MatrixSpec(**kw)
+    except InputError as exc:
+        r.problems.extend(exc.problems)
+        return None
 
 
 def _read_about(r: _Reader, data: Any) -> dict:

@@ -15,7 +15,9 @@ from similitude.planning.case import (
     Case,
     FluidSpec,
     MatchRequest,
+    MatrixSpec,
     Prototype,
+    WaveCondition,
     dimension_power,
 )
 from similitude.planning.facilities import Facility
@@ -151,3 +153,23 @@ def test_mass_fraction_outside_0_to_1_is_refused(w):
 def test_round_scale_must_be_a_boolean():
     with pytest.raises(InputError, match="match.round_scale"):
         MatchRequest(round_scale="yes")
+
+
+@pytest.mark.parametrize("kw,field", [
+    (dict(speed_basis="knots"), "matrix.speed_basis"),
+    (dict(repeats=0), "matrix.repeats"),
+    (dict(repeats=1.5), "matrix.repeats"),
+    (dict(speeds=(-1.0,)), "matrix.speeds[0]"),
+    (dict(current=-0.5), "matrix.current"),
+    (dict(waiting_time=float("nan")), "matrix.waiting_time"),
+    (dict(waves=(WaveCondition("irregular", peak_period=8.0),)), "matrix.waves[0]"),
+    (dict(waves=(WaveCondition("regular", height=1.0),)), "matrix.waves[0].period"),
+    (dict(waves=(WaveCondition("swell", period=8.0, height=1.0),)), "matrix.waves[0].kind"),
+    (dict(waves=(WaveCondition("irregular", significant_height=3.0, peak_period=8.0,
+                               spectrum="pm"),)), "matrix.waves[0].spectrum"),
+])
+def test_bad_matrix_specification_is_a_one_line_input_error(kw, field):
+    with pytest.raises(InputError) as err:
+        MatrixSpec(**kw)
+    assert str(err.value).startswith(field)
+    assert "\n" not in str(err.value)

@@ -7,7 +7,6 @@ import numpy as np
 import pytest
 
 import fluids_props as fp
-from similitude.errors import InputError
 from similitude.planning.case import (
     Case,
     FluidSpec,
@@ -219,22 +218,6 @@ def test_tunnel_runs_have_no_run_distance():
     m = build_matrix(_case(facility=fac), _solution())
     assert m["run distance [m]"].isna().all()
     assert (m["run time [s]"] > 0).all()
-
-
-@pytest.mark.parametrize("spec,field", [
-    (MatrixSpec(speed_basis="knots"), "matrix.speed_basis"),
-    (MatrixSpec(repeats=0), "matrix.repeats"),
-    (MatrixSpec(speeds=(-1.0,)), "matrix.speeds[0]"),
-    (MatrixSpec(waves=(WaveCondition("irregular", peak_period=8.0),)), "matrix.waves[0]"),
-    (MatrixSpec(waves=(WaveCondition("regular", height=1.0),)), "matrix.waves[0].period"),
-    (MatrixSpec(waves=(WaveCondition("swell", period=8.0, height=1.0),)),
-     "matrix.waves[0].kind"),
-])
-def test_bad_matrix_specification_is_a_one_line_input_error(spec, field):
-    with pytest.raises(InputError) as err:
-        build_matrix(_case(spec), _solution())
-    assert str(err.value).startswith(field)
-    assert "\n" not in str(err.value)
 
 
 def test_ten_thousand_run_matrix_is_built():

@@ -74,6 +74,31 @@ def bench_gases() -> list[str]:
             f"nitrogen_si,    {N} points: {t_n2 * 1e3:.2f} ms"]
 
 
+def bench_unit_edge(calls: int = 200) -> list[str]:
+    """One scalar call through the public unit edge against converting by hand in the same run.
+
+    The edge (``fluids_props.units.si_edge``) binds the arguments and converts them with
+    ``to_si``; the SI cores it calls are not wrapped, so the grids above do not pay for it.
+    """
+    import fluids_props as fp
+    from fluids_props.units import to_si
+    from fluids_props.water import fresh_water_si
+
+    def by_hand():
+        for _ in range(calls):
+            fresh_water_si(to_si("15 degC", "[temperature]", "temperature"),
+                           to_si("101325 Pa", "[pressure]", "pressure"), extrapolate=False)
+
+    def edge():
+        for _ in range(calls):
+            fp.fresh_water("15 degC")
+
+    t_hand = best_of(by_hand) / calls
+    t_edge = best_of(edge) / calls
+    return [f"fresh_water('15 degC') through the unit edge: {t_edge * 1e6:.0f} us; to_si + "
+            f"fresh_water_si by hand: {t_hand * 1e6:.0f} us -> ratio {t_edge / t_hand:.2f}"]
+
+
 _IMPORT_STEPS = """
 import json, sys, time
 t = [time.perf_counter()]
@@ -125,7 +150,7 @@ def bench_import(repeat: int = 5) -> list[str]:
 
 def main() -> None:
     print("== fluids_props ==")
-    for line in bench_liquids() + bench_gases() + bench_import():
+    for line in bench_liquids() + bench_gases() + bench_unit_edge() + bench_import():
         print("  " + line)
 
 

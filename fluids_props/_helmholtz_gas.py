@@ -48,6 +48,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from ._arrays import horner
+
 
 @dataclass(frozen=True)
 class HelmholtzGas:
@@ -463,11 +465,9 @@ def viscosity(gas: HelmholtzGas, temperature, delta, tau, dpow=None, tpow=None) 
     prep = _PREPARED[gas.name]
     if tpow is None:
         tpow = _tau_powers(tau.ravel(), prep).reshape((-1,) + tau.shape)
-    ln_ts = np.log(T / gas.visc_eps_k)
-    poly = OMEGA_B[-1]
-    for b in OMEGA_B[-2::-1]:
-        poly = poly * ln_ts + b
-    eta0 = 0.0266958 * np.sqrt(gas.visc_molar_mass_g * T) / (gas.visc_sigma_nm**2 * np.exp(poly))
+    ln_omega = horner(OMEGA_B, np.log(T / gas.visc_eps_k))
+    eta0 = (0.0266958 * np.sqrt(gas.visc_molar_mass_g * T)
+            / (gas.visc_sigma_nm**2 * np.exp(ln_omega)))
     eta_r = np.zeros_like(eta0)
     expo = {}
     for n, t, d, l, gam in gas.visc_residual:

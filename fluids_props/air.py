@@ -56,10 +56,12 @@ from __future__ import annotations
 import numpy as np
 
 from . import _helmholtz_gas as hg
+from ._arrays import broadcast_float_arrays, check_ranges
+from ._arrays import float_or_array as _out
 from .registry import FluidInfo
 from .state import FluidState
-from .units import to_si
-from .validity import OutOfRangeError, Range, check, common_shape
+from .units import si_edge
+from .validity import OutOfRangeError, Range, check
 
 T_RANGE = Range("temperature", 200.0, 400.0, "K")
 P_RANGE = Range("pressure", 1.0e3, 2.0e6, "Pa")
@@ -259,9 +261,7 @@ def cipm_weight(temperature_K, pressure_Pa):
 
 
 def _check_inputs(T, p, h, extrapolate):
-    check(T, T_RANGE, "air", extrapolate)
-    check(p, P_RANGE, "air", extrapolate)
-    check(h, RH_RANGE, "air", extrapolate)
+    check_ranges("air", extrapolate, (T, T_RANGE), (p, P_RANGE), (h, RH_RANGE))
     moist = h > 0
     if np.any(moist):
         check(T[moist], T_MOIST_RANGE, "moist air (CIPM-2007 saturation over water)",
@@ -307,11 +307,8 @@ def air_si(temperature_K, pressure_Pa=101325.0, relative_humidity=0.0, extrapola
     2. Lemmon et al. (2000), J. Phys. Chem. Ref. Data 29, 331-385.
     3. Lemmon & Jacobsen (2004), Int. J. Thermophys. 25, 21-69.
     """
-    common_shape("air", temperature=temperature_K, pressure=pressure_Pa,
-                 relative_humidity=relative_humidity)
-    T, p, h = np.broadcast_arrays(np.asarray(temperature_K, dtype=float),
-                                  np.asarray(pressure_Pa, dtype=float),
-                                  np.asarray(relative_humidity, dtype=float))
+    T, p, h = broadcast_float_arrays("air", temperature=temperature_K, pressure=pressure_Pa,
+                                     relative_humidity=relative_humidity)
     _check_inputs(T, p, h, extrapolate)
     x_v = water_vapour_mole_fraction(T, p, h)
     if np.any(x_v >= 1.0):
@@ -339,20 +336,17 @@ def air_si(temperature_K, pressure_Pa=101325.0, relative_humidity=0.0, extrapola
         gamma = gamma * ratio
         a = a * np.sqrt(ratio * m_a / m_m)
     rho = p * m_a / (z * R_CIPM * T) * (1.0 - x_v * (1.0 - M_WATER / m_a))
-
-    def out(v):
-        v = np.asarray(v, dtype=float)
-        return float(v) if v.ndim == 0 else v
-
     return FluidState(
-        "air", out(T), out(p), out(rho), out(mu), speed_of_sound_si=out(a),
-        extra={"ratio_of_specific_heats": out(gamma), "relative_humidity": out(h),
-               "water_vapour_mole_fraction": out(x_v), "compressibility": out(z),
-               "isobaric_heat_capacity": out(dry["cp"])},
+        "air", _out(T), _out(p), _out(rho), _out(mu), speed_of_sound_si=_out(a),
+        extra={"ratio_of_specific_heats": _out(gamma), "relative_humidity": _out(h),
+               "water_vapour_mole_fraction": _out(x_v), "compressibility": _out(z),
+               "isobaric_heat_capacity": _out(dry["cp"])},
         sources=SOURCES,
     )
 
 
+@si_edge(air_si, temperature="[temperature]", pressure="[pressure]",
+         relative_humidity="dimensionless")
 def air(temperature, pressure="101325 Pa", relative_humidity=0, extrapolate=False) -> FluidState:
     r"""Properties of dry or moist air.
 
@@ -377,9 +371,6 @@ def air(temperature, pressure="101325 Pa", relative_humidity=0, extrapolate=Fals
     >>> round(air("20 degC", "101325 Pa", "50 %").density_si, 5)
     1.19931
     """
-    return air_si(to_si(temperature, "[temperature]", "temperature"),
-                  to_si(pressure, "[pressure]", "pressure"),
-                  to_si(relative_humidity, "dimensionless", "relative_humidity"), extrapolate)
 
 
 def air_density_si(temperature_K, pressure_Pa=101325.0, relative_humidity=0.0):

@@ -37,8 +37,9 @@ from __future__ import annotations
 
 import numpy as np
 
+from ._arrays import float_or_array as _out
 from .state import FluidState
-from .units import to_si
+from .units import si_edge
 from .validity import Range, check
 
 #: Standard acceleration of gravity [m/s^2].
@@ -180,20 +181,16 @@ def standard_atmosphere_si(altitude_m, geopotential=False, extrapolate=False) ->
     a = np.sqrt(GAMMA * R_AIR * t)
     mu = sutherland_viscosity(t)
     g = G0 * (R_EARTH / (R_EARTH + z)) ** 2
-
-    def out(v):
-        v = np.asarray(v, dtype=float)
-        return float(v) if v.ndim == 0 else v
-
     return FluidState(
-        "standard_atmosphere", out(t), out(p), out(rho), out(mu), speed_of_sound_si=out(a),
-        extra={"ratio_of_specific_heats": out(np.full_like(t, GAMMA)),
-               "geopotential_altitude": out(h), "geometric_altitude": out(z),
-               "gravity": out(g)},
+        "standard_atmosphere", _out(t), _out(p), _out(rho), _out(mu), speed_of_sound_si=_out(a),
+        extra={"ratio_of_specific_heats": _out(np.full_like(t, GAMMA)),
+               "geopotential_altitude": _out(h), "geometric_altitude": _out(z),
+               "gravity": _out(g)},
         sources=SOURCES,
     )
 
 
+@si_edge(standard_atmosphere_si, altitude="[length]")
 def standard_atmosphere(altitude, geopotential: bool = False,
                         extrapolate: bool = False) -> FluidState:
     """The ISO 2533 / ICAO standard atmosphere at an altitude.
@@ -218,5 +215,3 @@ def standard_atmosphere(altitude, geopotential: bool = False,
     >>> round(standard_atmosphere("11 km", geopotential=True).pressure_si)
     22632
     """
-    return standard_atmosphere_si(to_si(altitude, "[length]", "altitude"), geopotential,
-                                  extrapolate)

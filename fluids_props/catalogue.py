@@ -2,9 +2,12 @@
 
 from __future__ import annotations
 
-import importlib
-
+from .air import FLUID_INFO as AIR
+from .gases import builtin_fluid_infos, optional_fluid_infos
+from .glycerol_water import FLUID_INFO as GLYCEROL_WATER
 from .registry import FluidInfo
+from .seawater import FLUID_INFO as SEA_WATER
+from .water import FLUID_INFO as FRESH_WATER
 
 
 def list_fluids() -> tuple[FluidInfo, ...]:
@@ -15,16 +18,8 @@ def list_fluids() -> tuple[FluidInfo, ...]:
     tuple of FluidInfo
         One entry per fluid; ``FluidInfo.ranges`` gives the validity range of each input.
     """
-    # The package re-exports functions named like their modules (``air``), so go by module path.
-    water, seawater, glycerol_water, air, gases = (
-        importlib.import_module(f"fluids_props.{m}")
-        for m in ("water", "seawater", "glycerol_water", "air", "gases")
-    )
-    infos: list[FluidInfo] = [water.FLUID_INFO, seawater.FLUID_INFO, glycerol_water.FLUID_INFO,
-                              air.FLUID_INFO]
-    infos.extend(gases.builtin_fluid_infos())
-    infos.extend(gases.optional_fluid_infos())
-    return tuple(infos)
+    return (FRESH_WATER, SEA_WATER, GLYCEROL_WATER, AIR, *builtin_fluid_infos(),
+            *optional_fluid_infos())
 
 
 def get_fluid(name: str) -> FluidInfo:

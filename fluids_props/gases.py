@@ -47,10 +47,12 @@ from dataclasses import dataclass
 import numpy as np
 
 from . import _helmholtz_gas as hg
+from ._arrays import broadcast_float_arrays, check_ranges
+from ._arrays import float_or_array as _out
 from .registry import FluidInfo
 from .state import FluidState
-from .units import to_si
-from .validity import OutOfRangeError, Range, check, common_shape
+from .units import si_edge
+from .validity import OutOfRangeError, Range
 
 N2_T_RANGE = Range("temperature", 65.0, 500.0, "K")
 N2_P_RANGE = Range("pressure", 1.0e3, 1.2e6, "Pa")
@@ -158,11 +160,8 @@ def nitrogen_si(temperature_K, pressure_Pa=101325.0, extrapolate=False, **_) -> 
     1. Span et al. (2000), J. Phys. Chem. Ref. Data 29, 1361-1433.
     2. Lemmon & Jacobsen (2004), Int. J. Thermophys. 25, 21-69.
     """
-    common_shape("nitrogen", temperature=temperature_K, pressure=pressure_Pa)
-    T, p = np.broadcast_arrays(np.asarray(temperature_K, dtype=float),
-                               np.asarray(pressure_Pa, dtype=float))
-    check(T, N2_T_RANGE, "nitrogen", extrapolate)
-    check(p, N2_P_RANGE, "nitrogen", extrapolate)
+    T, p = broadcast_float_arrays("nitrogen", temperature=temperature_K, pressure=pressure_Pa)
+    check_ranges("nitrogen", extrapolate, (T, N2_T_RANGE), (p, N2_P_RANGE))
     psat = nitrogen_saturation_pressure_si(T)
     liquid = _refuse_liquid(T, p, psat, "nitrogen", extrapolate)
     # Liquid points (extrapolate=True) are evaluated at half their saturation pressure, a safe
@@ -182,6 +181,7 @@ def nitrogen_si(temperature_K, pressure_Pa=101325.0, extrapolate=False, **_) -> 
     )
 
 
+@si_edge(nitrogen_si, temperature="[temperature]", pressure="[pressure]")
 def nitrogen(temperature, pressure="101325 Pa", extrapolate=False) -> FluidState:
     """Properties of gaseous nitrogen, the test gas of cryogenic wind tunnels.
 
@@ -199,13 +199,6 @@ def nitrogen(temperature, pressure="101325 Pa", extrapolate=False) -> FluidState
     FluidState
         See :func:`nitrogen_si`.
     """
-    return nitrogen_si(to_si(temperature, "[temperature]", "temperature"),
-                       to_si(pressure, "[pressure]", "pressure"), extrapolate)
-
-
-def _out(v):
-    v = np.asarray(v, dtype=float)
-    return float(v) if v.ndim == 0 else v
 
 
 N2_FLUID_INFO = FluidInfo(
@@ -281,9 +274,8 @@ def coolprop_fluid_si(name: str, temperature_K, pressure_Pa=101325.0, extrapolat
     cp = _coolprop()
     key = name.strip().lower()
     cp_name = COOLPROP_GASES[key][0] if key in COOLPROP_GASES else name.strip()
-    common_shape(f"coolprop:{key}", temperature=temperature_K, pressure=pressure_Pa)
-    T, p = np.broadcast_arrays(np.asarray(temperature_K, dtype=float),
-                               np.asarray(pressure_Pa, dtype=float))
+    T, p = broadcast_float_arrays(f"coolprop:{key}", temperature=temperature_K,
+                                  pressure=pressure_Pa)
     shape = T.shape
     Tf, pf = T.ravel(), p.ravel()
     try:
@@ -320,6 +312,7 @@ def coolprop_fluid_si(name: str, temperature_K, pressure_Pa=101325.0, extrapolat
     )
 
 
+@si_edge(coolprop_fluid_si, temperature="[temperature]", pressure="[pressure]")
 def coolprop_fluid(name: str, temperature, pressure="101325 Pa",
                    extrapolate=False) -> FluidState:
     """Properties of a gas from the optional CoolProp back-end.
@@ -340,8 +333,6 @@ def coolprop_fluid(name: str, temperature, pressure="101325 Pa",
     FluidState
         See :func:`coolprop_fluid_si`.
     """
-    return coolprop_fluid_si(name, to_si(temperature, "[temperature]", "temperature"),
-                             to_si(pressure, "[pressure]", "pressure"), extrapolate)
 
 
 @dataclass(frozen=True)
@@ -352,9 +343,8 @@ class _CoolPropEvaluator:
     ranges: tuple
 
     def __call__(self, temperature_K, pressure_Pa=101325.0, extrapolate=False, **_):
-        where = f"coolprop:{self.key}"
-        check(temperature_K, self.ranges[0], where, extrapolate)
-        check(pressure_Pa, self.ranges[1], where, extrapolate)
+        check_ranges(f"coolprop:{self.key}", extrapolate, (temperature_K, self.ranges[0]),
+                     (pressure_Pa, self.ranges[1]))
         return coolprop_fluid_si(self.key, temperature_K, pressure_Pa, extrapolate)
 
 

@@ -43,10 +43,11 @@ from __future__ import annotations
 import numpy as np
 
 from . import water
+from ._arrays import broadcast_copy, check_ranges, float_arrays, numpy_scalar
 from .registry import FluidInfo
 from .state import FluidState
-from .units import to_si
-from .validity import Range, check, common_shape
+from .units import si_edge
+from .validity import Range
 
 T_RANGE = Range("temperature", 273.15, 373.15, "K")
 W_RANGE = Range("mass_fraction", 0.0, 1.0, "kg/kg")
@@ -106,7 +107,7 @@ def density(temperature, mass_fraction):
     k = k0 + t * (k1 + t * k2)
     # clip guards the tiny negative sine that rounding gives at C_m = 1 (sin(pi) ~ 1e-16)
     sine = np.clip(np.sin(c**e1 * np.pi), 0.0, None)
-    return water._scalar(rho_ideal * (1.0 + k * sine**e2))
+    return numpy_scalar(rho_ideal * (1.0 + k * sine**e2))
 
 
 def dynamic_viscosity(temperature, mass_fraction):
@@ -143,7 +144,7 @@ def dynamic_viscosity(temperature, mass_fraction):
     a = 0.705 - 0.0017 * t
     b = (4.9 + 0.036 * t) * a**2.5
     alpha = 1.0 - c + a * b * c * (1.0 - c) / (a * c + b * (1.0 - c))
-    return water._scalar(mu_g * (mu_w / mu_g) ** alpha)
+    return numpy_scalar(mu_g * (mu_w / mu_g) ** alpha)
 
 
 def vapour_pressure(temperature, mass_fraction):
@@ -169,7 +170,7 @@ def vapour_pressure(temperature, mass_fraction):
     c = np.asarray(mass_fraction, dtype=float)
     n_w = (1.0 - c) / M_WATER
     n_g = c / M_GLYCEROL
-    return water._scalar(water.vapour_pressure(temperature) * n_w / (n_w + n_g))
+    return numpy_scalar(water.vapour_pressure(temperature) * n_w / (n_w + n_g))
 
 
 def glycerol_water_si(temperature_K, pressure_Pa=water.P0, mass_fraction=0.5,
@@ -192,27 +193,25 @@ def glycerol_water_si(temperature_K, pressure_Pa=water.P0, mass_fraction=0.5,
     FluidState
         ``extra["mass_fraction"]`` carries the glycerol mass fraction; surface tension is None.
     """
-    T = np.asarray(temperature_K, dtype=float)
-    p = np.asarray(pressure_Pa, dtype=float)
-    c = np.asarray(mass_fraction, dtype=float)
-    common_shape("glycerol_water", temperature=T, pressure=p, mass_fraction=c)
-    check(T, T_RANGE, "glycerol_water", extrapolate)
-    check(c, W_RANGE, "glycerol_water", extrapolate)
-    shape = np.broadcast_shapes(T.shape, p.shape, c.shape)
+    (T, p, c), shape = float_arrays("glycerol_water", temperature=temperature_K,
+                                    pressure=pressure_Pa, mass_fraction=mass_fraction)
+    check_ranges("glycerol_water", extrapolate, (T, T_RANGE), (c, W_RANGE))
     T_b, c_b = np.broadcast_to(T, shape), np.broadcast_to(c, shape)
     return FluidState(
         fluid="glycerol_water",
-        temperature_si=water._scalar(np.array(T_b)),
-        pressure_si=water._scalar(np.array(np.broadcast_to(p, shape))),
+        temperature_si=broadcast_copy(T_b, shape),
+        pressure_si=broadcast_copy(p, shape),
         density_si=density(T_b, c_b),
         dynamic_viscosity_si=dynamic_viscosity(T_b, c_b),
         vapour_pressure_si=vapour_pressure(T_b, c_b),
         surface_tension_si=None,
-        extra={"mass_fraction": water._scalar(np.array(c_b))},
+        extra={"mass_fraction": broadcast_copy(c_b, shape)},
         sources=SOURCES,
     )
 
 
+@si_edge(glycerol_water_si, temperature="[temperature]", mass_fraction="dimensionless",
+         pressure="[pressure]")
 def glycerol_water(temperature, mass_fraction, pressure="101325 Pa",
                    extrapolate: bool = False) -> FluidState:
     """Properties of a glycerol-water mixture.
@@ -233,12 +232,6 @@ def glycerol_water(temperature, mass_fraction, pressure="101325 Pa",
     FluidState
         See :func:`glycerol_water_si`.
     """
-    return glycerol_water_si(
-        to_si(temperature, "[temperature]", "temperature"),
-        to_si(pressure, "[pressure]", "pressure"),
-        to_si(mass_fraction, "dimensionless", "mass_fraction"),
-        extrapolate=extrapolate,
-    )
 
 
 FLUID_INFO = FluidInfo(

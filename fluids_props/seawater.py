@@ -68,10 +68,11 @@ from __future__ import annotations
 import numpy as np
 
 from . import water
+from ._arrays import broadcast_copy, check_ranges, float_arrays, horner, is_uniform, numpy_scalar
 from .registry import FluidInfo
 from .state import FluidState
-from .units import to_si
-from .validity import Range, check, common_shape
+from .units import si_edge
+from .validity import Range
 
 #: Temperature range [K], set by the pure-water part (IAPWS SR7-09).
 T_RANGE = Range("temperature", 273.15, 313.15, "K")
@@ -150,7 +151,7 @@ def _poly2(rows, xi, y):
     """sum_{i,j} rows[i][j] xi^i y^j by nested Horner (inner in y, outer in xi)."""
     out = 0.0
     for row in rows[::-1]:
-        out = out * xi + (water._poly(row, y) if row else 0.0)
+        out = out * xi + (horner(row, y) if row else 0.0)
     return out
 
 
@@ -189,8 +190,8 @@ def saline_specific_volume(salinity, temperature, pressure=water.P0):
     y = (T - water.T0) / water.T_SCALE
     if p.ndim == 0 and p == water.P0:
         out = _poly2(_GSP_TABLES[0], xi, y) + np.zeros(np.broadcast_shapes(S.shape, T.shape))
-        return water._scalar(out / water.P_SCALE)
-    if water._uniform(p):
+        return numpy_scalar(out / water.P_SCALE)
+    if is_uniform(p):
         # One pressure for the whole grid: fold the z-polynomial into the (i, j) table.
         z0 = (float(p.flat[0]) - water.P0) / water.P_SCALE
         table = np.zeros((8, 7))
@@ -198,13 +199,13 @@ def saline_specific_volume(salinity, temperature, pressure=water.P0):
             table = table * z0 + np.array([list(r) + [0.0] * (7 - len(r)) for r in rows])
         rows = tuple(tuple(np.trim_zeros(r, "b")) for r in table)
         out = _poly2(rows, xi, y) + np.zeros(np.broadcast_shapes(S.shape, T.shape, p.shape))
-        return water._scalar(out / water.P_SCALE)
+        return numpy_scalar(out / water.P_SCALE)
     z = (p - water.P0) / water.P_SCALE
     xi, y, z = np.broadcast_arrays(xi, y, z)
     out = np.zeros(xi.shape)
     for table in reversed(_GSP_TABLES):
         out = out * z + _poly2(table, xi, y)
-    return water._scalar(out / water.P_SCALE)
+    return numpy_scalar(out / water.P_SCALE)
 
 
 def density(temperature, salinity=S_REFERENCE, pressure=water.P0):
@@ -264,9 +265,9 @@ def viscosity_salinity_factor(temperature, salinity):
     """
     t = np.asarray(temperature, dtype=float) - 273.15
     S = np.asarray(salinity, dtype=float)
-    a = water._poly(VISCOSITY_A, t)
-    b = water._poly(VISCOSITY_B, t)
-    return water._scalar(1.0 + a * S + b * S * S)
+    a = horner(VISCOSITY_A, t)
+    b = horner(VISCOSITY_B, t)
+    return numpy_scalar(1.0 + a * S + b * S * S)
 
 
 def dynamic_viscosity(temperature, salinity=S_REFERENCE, pressure=water.P0):
@@ -389,14 +390,9 @@ def sea_water_si(temperature_K, pressure_Pa=water.P0, salinity=S_REFERENCE, extr
     OutOfRangeError
         If a finite input lies outside its range and ``extrapolate`` is False.
     """
-    T = np.asarray(temperature_K, dtype=float)
-    p = np.asarray(pressure_Pa, dtype=float)
-    S = np.asarray(salinity, dtype=float)
-    common_shape("sea_water", temperature=T, pressure=p, salinity=S)
-    check(T, T_RANGE, "sea_water", extrapolate)
-    check(S, S_RANGE, "sea_water", extrapolate)
-    check(p, P_RANGE, "sea_water", extrapolate)
-    shape = np.broadcast_shapes(T.shape, p.shape, S.shape)
+    (T, p, S), shape = float_arrays("sea_water", temperature=temperature_K, pressure=pressure_Pa,
+                                    salinity=salinity)
+    check_ranges("sea_water", extrapolate, (T, T_RANGE), (S, S_RANGE), (p, P_RANGE))
     T_b = np.broadcast_to(T, shape)
     S_b = np.broadcast_to(S, shape)
     # A scalar pressure stays scalar so that the 1-atm polynomial path is taken.
@@ -406,17 +402,19 @@ def sea_water_si(temperature_K, pressure_Pa=water.P0, salinity=S_REFERENCE, extr
     mu_w = water.dynamic_viscosity(T_b, 1.0 / v_w)
     return FluidState(
         fluid="sea_water",
-        temperature_si=water._scalar(np.array(T_b)),
-        pressure_si=water._scalar(np.array(np.broadcast_to(p, shape))),
+        temperature_si=broadcast_copy(T_b, shape),
+        pressure_si=broadcast_copy(p, shape),
         density_si=1.0 / (v_w + saline_specific_volume(S_b, T_b, p_arg)),
         dynamic_viscosity_si=mu_w * viscosity_salinity_factor(T_b, S_b),
-        vapour_pressure_si=water._scalar(vapour_pressure(T_b, S_b)),
-        surface_tension_si=water._scalar(surface_tension(T_b, S_b)),
-        extra={"salinity": water._scalar(np.array(S_b))},
+        vapour_pressure_si=numpy_scalar(vapour_pressure(T_b, S_b)),
+        surface_tension_si=numpy_scalar(surface_tension(T_b, S_b)),
+        extra={"salinity": broadcast_copy(S_b, shape)},
         sources=SOURCES,
     )
 
 
+@si_edge(sea_water_si, temperature="[temperature]", salinity="dimensionless",
+         pressure="[pressure]")
 def sea_water(temperature, salinity="35.16504 g/kg", pressure="101325 Pa",
               extrapolate: bool = False) -> FluidState:
     """Properties of sea water at a temperature, absolute salinity and pressure.
@@ -442,12 +440,6 @@ def sea_water(temperature, salinity="35.16504 g/kg", pressure="101325 Pa",
     >>> round(float(sea_water("15 degC").kinematic_viscosity_si) * 1e6, 4)
     1.1892
     """
-    return sea_water_si(
-        to_si(temperature, "[temperature]", "temperature"),
-        to_si(pressure, "[pressure]", "pressure"),
-        to_si(salinity, "dimensionless", "salinity"),
-        extrapolate=extrapolate,
-    )
 
 
 FLUID_INFO = FluidInfo(

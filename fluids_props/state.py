@@ -10,6 +10,29 @@ import numpy as np
 from .units import si_quantity
 
 
+def _quantity(field_name: str, unit: str, doc: str, optional: bool = False) -> property:
+    """A read-only property giving the SI field ``field_name`` as a Quantity in ``unit``.
+
+    With ``optional``, a field that is None (a property that does not apply) gives None.
+    """
+
+    def get(self):
+        value = getattr(self, field_name)
+        if optional and value is None:
+            return None
+        return si_quantity(value, unit)
+
+    return property(get, doc=doc)
+
+
+#: The properties a fluid may lack: (SI field, label in tables, symbol in repr, unit).
+_OPTIONAL = (
+    ("vapour_pressure_si", "vapour pressure [Pa]", "p_v", "Pa"),
+    ("surface_tension_si", "surface tension [N/m]", "sigma", "N/m"),
+    ("speed_of_sound_si", "speed of sound [m/s]", "a", "m/s"),
+)
+
+
 @dataclass(frozen=True)
 class FluidState:
     """Thermophysical properties of a fluid at a state, stored in SI.
@@ -62,48 +85,20 @@ class FluidState:
         return np.divide(self.dynamic_viscosity_si, self.density_si)
 
     # -- Quantities ----------------------------------------------------------------------
-    @property
-    def temperature(self):
-        """Temperature as a Quantity [K]."""
-        return si_quantity(self.temperature_si, "K")
-
-    @property
-    def pressure(self):
-        """Absolute pressure as a Quantity [Pa]."""
-        return si_quantity(self.pressure_si, "Pa")
-
-    @property
-    def density(self):
-        """Density as a Quantity [kg/m^3]."""
-        return si_quantity(self.density_si, "kg/m^3")
-
-    @property
-    def dynamic_viscosity(self):
-        """Dynamic viscosity as a Quantity [Pa s]."""
-        return si_quantity(self.dynamic_viscosity_si, "Pa*s")
-
-    @property
-    def kinematic_viscosity(self):
-        """Kinematic viscosity as a Quantity [m^2/s]."""
-        return si_quantity(self.kinematic_viscosity_si, "m^2/s")
-
-    @property
-    def vapour_pressure(self):
-        """Saturation vapour pressure as a Quantity [Pa], or None."""
-        v = self.vapour_pressure_si
-        return None if v is None else si_quantity(v, "Pa")
-
-    @property
-    def surface_tension(self):
-        """Surface tension as a Quantity [N/m], or None."""
-        v = self.surface_tension_si
-        return None if v is None else si_quantity(v, "N/m")
-
-    @property
-    def speed_of_sound(self):
-        """Speed of sound as a Quantity [m/s], or None."""
-        v = self.speed_of_sound_si
-        return None if v is None else si_quantity(v, "m/s")
+    temperature = _quantity("temperature_si", "K", "Temperature as a Quantity [K].")
+    pressure = _quantity("pressure_si", "Pa", "Absolute pressure as a Quantity [Pa].")
+    density = _quantity("density_si", "kg/m^3", "Density as a Quantity [kg/m^3].")
+    dynamic_viscosity = _quantity("dynamic_viscosity_si", "Pa*s",
+                                  "Dynamic viscosity as a Quantity [Pa s].")
+    kinematic_viscosity = _quantity("kinematic_viscosity_si", "m^2/s",
+                                    "Kinematic viscosity as a Quantity [m^2/s].")
+    vapour_pressure = _quantity("vapour_pressure_si", "Pa",
+                                "Saturation vapour pressure as a Quantity [Pa], or None.",
+                                optional=True)
+    surface_tension = _quantity("surface_tension_si", "N/m",
+                                "Surface tension as a Quantity [N/m], or None.", optional=True)
+    speed_of_sound = _quantity("speed_of_sound_si", "m/s",
+                               "Speed of sound as a Quantity [m/s], or None.", optional=True)
 
     def as_dict(self) -> dict[str, Any]:
         """Properties as a flat ``{'name [unit]': SI value}`` mapping, for tables."""
@@ -114,12 +109,9 @@ class FluidState:
             "dynamic viscosity [Pa s]": self.dynamic_viscosity_si,
             "kinematic viscosity [m^2/s]": self.kinematic_viscosity_si,
         }
-        if self.vapour_pressure_si is not None:
-            out["vapour pressure [Pa]"] = self.vapour_pressure_si
-        if self.surface_tension_si is not None:
-            out["surface tension [N/m]"] = self.surface_tension_si
-        if self.speed_of_sound_si is not None:
-            out["speed of sound [m/s]"] = self.speed_of_sound_si
+        for name, label, _, _ in _OPTIONAL:
+            if getattr(self, name) is not None:
+                out[label] = getattr(self, name)
         return out
 
     def __repr__(self) -> str:
@@ -135,10 +127,7 @@ class FluidState:
             f"rho={fmt(self.density_si, 'kg/m^3')}",
             f"nu={fmt(self.kinematic_viscosity_si, 'm^2/s')}",
         ]
-        if self.vapour_pressure_si is not None:
-            parts.append(f"p_v={fmt(self.vapour_pressure_si, 'Pa')}")
-        if self.surface_tension_si is not None:
-            parts.append(f"sigma={fmt(self.surface_tension_si, 'N/m')}")
-        if self.speed_of_sound_si is not None:
-            parts.append(f"a={fmt(self.speed_of_sound_si, 'm/s')}")
+        for name, _, symbol, unit in _OPTIONAL:
+            if getattr(self, name) is not None:
+                parts.append(f"{symbol}={fmt(getattr(self, name), unit)}")
         return f"FluidState({self.fluid}: " + ", ".join(parts) + ")"

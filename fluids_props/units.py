@@ -10,7 +10,10 @@ where strings ("15 degC", "59 degF", "35 g/kg", "2 bar") and Quantities become S
 
 from __future__ import annotations
 
+import functools
+import inspect
 import re
+from collections.abc import Callable
 from typing import Any
 
 import numpy as np
@@ -204,3 +207,94 @@ def example_unit(dim) -> str:
 def si_quantity(magnitude: Any, unit: str) -> pint.Quantity:
     """Wrap an SI magnitude (float or array) as a Quantity of the shared registry."""
     return Q_(magnitude, unit)
+
+
+def si_edge(core: Callable[..., Any], **dimensions: str) -> Callable[[Callable], Callable]:
+    """Make the decorated function the unit edge of an SI ``core``, declaring each dimension once.
+
+    The decorated function gives the public signature, its defaults and its docstring; its body
+    is not run. A call binds the arguments to that signature, converts each argument named in
+    ``dimensions`` with :func:`to_si` (so a wrong unit fails at the door with a message naming
+    the argument, the value and the expected dimension), passes the others unchanged, and returns
+    what ``core`` returns. The core is left as it is, for callers that already hold SI values.
+
+    Parameters
+    ----------
+    core : callable
+        The SI function. Each of its parameters takes the public argument of the same name, or
+        of its name without a unit suffix (``temperature_K`` takes ``temperature``,
+        ``pressure_Pa`` takes ``pressure``); the arguments are converted in the order of the
+        core's parameters.
+    **dimensions : str
+        Public argument name -> what :func:`to_si` expects, e.g. ``temperature="[temperature]"``,
+        ``pressure="[pressure]"``, ``salinity="dimensionless"``.
+
+    Returns
+    -------
+    callable
+        A decorator; the public function it returns keeps name, docstring and signature
+        (``functools.wraps``).
+
+    Raises
+    ------
+    TypeError
+        At decoration, when a public argument has no core parameter to go to, a dimension names
+        no public argument, or a core parameter without default gets no argument.
+
+    Examples
+    --------
+    >>> def speed_si(speed_m_s, extrapolate=False):
+    ...     return speed_m_s
+    >>> @si_edge(speed_si, speed="[length] / [time]")
+    ... def speed(speed, extrapolate=False):
+    ...     "Speed in m/s."
+    >>> speed("36 km/h")
+    10.0
+    """
+
+    def decorate(public: Callable) -> Callable:
+        signature = inspect.signature(public)
+        routes = _routes(public, signature, core, dimensions)
+
+        @functools.wraps(public)
+        def edge(*args, **kwargs):
+            try:
+                bound = signature.bind(*args, **kwargs)
+            except TypeError:
+                public(*args, **kwargs)  # raises Python's own message, naming the function
+                raise
+            bound.apply_defaults()
+            given = bound.arguments
+            return core(**{
+                target: given[name] if dimension is None else to_si(given[name], dimension, name)
+                for name, target, dimension in routes
+            })
+
+        return edge
+
+    return decorate
+
+
+def _routes(public, signature, core, dimensions) -> tuple[tuple[str, str, str | None], ...]:
+    """(public name, core parameter, dimension or None) in the order of the core's parameters."""
+    public_names = list(signature.parameters)
+    unknown = sorted(set(dimensions) - set(public_names))
+    if unknown:
+        raise TypeError(f"si_edge of {public.__name__}: no argument named {', '.join(unknown)}")
+    routes = []
+    for target, param in inspect.signature(core).parameters.items():
+        if param.kind in (param.VAR_POSITIONAL, param.VAR_KEYWORD):
+            continue
+        prefixes = [n for n in public_names if target.startswith(n + "_")]
+        name = target if target in public_names else max(prefixes, key=len, default=None)
+        if name is None:
+            if param.default is param.empty:
+                raise TypeError(f"si_edge of {public.__name__}: nothing for {core.__name__}'s "
+                                f"parameter {target!r}")
+            continue
+        routes.append((name, target, dimensions.get(name)))
+    missing = sorted(set(public_names) - {name for name, _, _ in routes})
+    if missing:
+        raise TypeError(f"si_edge of {public.__name__}: {core.__name__} takes no "
+                        f"{', '.join(missing)}")
+    return tuple(routes)

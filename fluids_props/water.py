@@ -72,10 +72,11 @@ from __future__ import annotations
 
 import numpy as np
 
+from ._arrays import check_ranges, float_arrays, horner, is_uniform, numpy_scalar
 from .registry import FluidInfo
 from .state import FluidState
-from .units import to_si
-from .validity import Range, check, common_shape
+from .units import si_edge
+from .validity import Range
 
 #: Temperature range of the fluid [K] (IAPWS SR7-09 holds to 313.15 K).
 T_RANGE = Range("temperature", 273.15, 313.15, "K")
@@ -146,26 +147,6 @@ SOURCES: tuple[str, ...] = (
 )
 
 
-def _poly(coeffs, x):
-    """Horner evaluation of sum c_n x^n (coefficients in rising order)."""
-    out = np.zeros_like(x) + coeffs[-1]
-    for c in coeffs[-2::-1]:
-        out = out * x + c
-    return out
-
-
-def _scalar(x):
-    """0-d arrays back to numpy scalars so scalar input gives scalar output."""
-    return x[()] if isinstance(x, np.ndarray) and x.ndim == 0 else x
-
-
-def _uniform(a: np.ndarray) -> bool:
-    """True when an array holds one (finite) value throughout, or is 0-d."""
-    if a.ndim == 0:
-        return bool(np.isfinite(a))
-    return a.size > 0 and bool(np.isfinite(a.flat[0])) and bool(np.all(a == a.flat[0]))
-
-
 def _gibbs_pressure_polys() -> tuple[tuple[float, ...], ...]:
     """For each k >= 1, the coefficients in y of k * g_jk (rising j), for the p-derivative."""
     kmax = max(k for _, k, _ in GIBBS_COEFFS)
@@ -221,20 +202,20 @@ def specific_volume(temperature, pressure=P0):
     y = (T - T0) / T_SCALE
     if p.ndim == 0 and p == P0:
         # At the reference pressure only the k = 1 terms remain: the spreadsheet form.
-        return _scalar(_poly(DENSITY_COEFFS, y) / P_SCALE)
-    if _uniform(p):
+        return numpy_scalar(horner(DENSITY_COEFFS, y) / P_SCALE)
+    if is_uniform(p):
         # One pressure for the whole grid: fold the z-polynomial into the y-coefficients.
         z0 = (float(p.flat[0]) - P0) / P_SCALE
         coeffs = np.zeros(len(_GP_POLYS[0]))
         for poly in reversed(_GP_POLYS):
             coeffs = coeffs * z0 + np.asarray(poly)
-        return _scalar(_poly(tuple(coeffs), y) / P_SCALE + np.zeros(p.shape))
+        return numpy_scalar(horner(tuple(coeffs), y) / P_SCALE + np.zeros(p.shape))
     z = (p - P0) / P_SCALE
     y, z = np.broadcast_arrays(y, z)
     gp = np.zeros(y.shape)
     for poly in reversed(_GP_POLYS):
-        gp = gp * z + _poly(poly, y)
-    return _scalar(gp / P_SCALE)
+        gp = gp * z + horner(poly, y)
+    return numpy_scalar(gp / P_SCALE)
 
 
 def density(temperature, pressure=P0):
@@ -300,14 +281,14 @@ def dynamic_viscosity(temperature, density):
     rho = np.asarray(density, dtype=float)
     tb = T / T_CRIT
     rb = rho / RHO_STAR
-    mu0 = 100.0 * np.sqrt(tb) / _poly(VISCOSITY_H0, 1.0 / tb)
+    mu0 = 100.0 * np.sqrt(tb) / horner(VISCOSITY_H0, 1.0 / tb)
     x = 1.0 / tb - 1.0
     d = rb - 1.0
     # Nested Horner: inner polynomials in x for each power of (rb - 1), then in (rb - 1).
     s = 0.0
     for col in reversed(_H1_BY_J):
-        s = s * d + _poly(col, x)
-    return _scalar(MU_STAR * mu0 * np.exp(rb * s))
+        s = s * d + horner(col, x)
+    return numpy_scalar(MU_STAR * mu0 * np.exp(rb * s))
 
 
 def vapour_pressure(temperature):
@@ -343,7 +324,7 @@ def vapour_pressure(temperature):
     rt = np.sqrt(tau)
     t3 = tau * tau * tau
     s = tau * (a1 + a2 * rt) + t3 * (a3 + a4 * rt + tau * (a5 + a6 * t3 * rt))
-    return _scalar(P_CRIT * np.exp(T_CRIT / T * s))
+    return numpy_scalar(P_CRIT * np.exp(T_CRIT / T * s))
 
 
 def surface_tension(temperature):
@@ -372,7 +353,7 @@ def surface_tension(temperature):
     T = np.asarray(temperature, dtype=float)
     big_b, mu, b = SURFACE_TENSION_COEFFS
     tau = 1.0 - T / T_CRIT
-    return _scalar(big_b * tau**mu * (1.0 + b * tau))
+    return numpy_scalar(big_b * tau**mu * (1.0 + b * tau))
 
 
 def fresh_water_si(temperature_K, pressure_Pa=P0, extrapolate=False, **_) -> FluidState:
@@ -399,11 +380,8 @@ def fresh_water_si(temperature_K, pressure_Pa=P0, extrapolate=False, **_) -> Flu
     OutOfRangeError
         If a finite temperature or pressure lies outside its range and ``extrapolate`` is False.
     """
-    T = np.asarray(temperature_K, dtype=float)
-    p = np.asarray(pressure_Pa, dtype=float)
-    common_shape("fresh_water", temperature=T, pressure=p)
-    check(T, T_RANGE, "fresh_water", extrapolate)
-    check(p, P_RANGE, "fresh_water", extrapolate)
+    (T, p), _ = float_arrays("fresh_water", temperature=temperature_K, pressure=pressure_Pa)
+    check_ranges("fresh_water", extrapolate, (T, T_RANGE), (p, P_RANGE))
     if p.ndim == 0:
         p_arg = float(p)
         p_out = np.broadcast_to(p, T.shape).copy() if T.ndim else p_arg
@@ -414,8 +392,8 @@ def fresh_water_si(temperature_K, pressure_Pa=P0, extrapolate=False, **_) -> Flu
     rho = density(T_b, p_arg)
     return FluidState(
         fluid="fresh_water",
-        temperature_si=_scalar(np.asarray(T_b)),
-        pressure_si=_scalar(np.asarray(p_out)),
+        temperature_si=numpy_scalar(np.asarray(T_b)),
+        pressure_si=numpy_scalar(np.asarray(p_out)),
         density_si=rho,
         dynamic_viscosity_si=dynamic_viscosity(T_b, rho),
         vapour_pressure_si=vapour_pressure(T_b),
@@ -424,6 +402,7 @@ def fresh_water_si(temperature_K, pressure_Pa=P0, extrapolate=False, **_) -> Flu
     )
 
 
+@si_edge(fresh_water_si, temperature="[temperature]", pressure="[pressure]")
 def fresh_water(temperature, pressure="101325 Pa", extrapolate: bool = False) -> FluidState:
     """Properties of fresh water at a temperature and pressure.
 
@@ -446,11 +425,6 @@ def fresh_water(temperature, pressure="101325 Pa", extrapolate: bool = False) ->
     >>> round(float(fresh_water("15 degC").density_si), 4)
     999.1026
     """
-    return fresh_water_si(
-        to_si(temperature, "[temperature]", "temperature"),
-        to_si(pressure, "[pressure]", "pressure"),
-        extrapolate=extrapolate,
-    )
 
 
 FLUID_INFO = FluidInfo(

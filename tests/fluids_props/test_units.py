@@ -5,11 +5,14 @@ BIPM SI Brochure 9th ed., Table 8), 1 ft = 0.3048 m (international yard and poun
 1959), T[K] = t[degC] + 273.15 and t[degF] = 1.8 t[degC] + 32 (ITS-90 / BIPM SI Brochure).
 """
 
+import inspect
+
 import numpy as np
 import pint
 import pytest
 
-from fluids_props.units import UnitInputError, parse_quantity, to_si, ureg
+import fluids_props as fp
+from fluids_props.units import UnitInputError, parse_quantity, si_edge, to_si, ureg
 
 
 def test_celsius_string_parses_to_kelvin():
@@ -74,3 +77,52 @@ def test_unknown_unit_gives_a_readable_error():
 def test_array_quantity_keeps_its_shape():
     q = ureg.Quantity(np.array([[1.0, 2.0]]), "km")
     assert to_si(q, "[length]").shape == (1, 2)
+
+
+# --- the public edge of the SI cores (si_edge) ---------------------------------------------------
+
+
+def _speed_si(speed_m_s, length_m=1.0, extrapolate=False):
+    return speed_m_s, length_m, extrapolate
+
+
+@si_edge(_speed_si, speed="[length] / [time]", length="[length]")
+def _speed(speed, length="1 m", extrapolate=False):
+    """Speed and length in SI."""
+
+
+def test_edge_converts_each_declared_argument_to_si_and_passes_the_rest():
+    # 1 kn = 1852/3600 m/s, 1 ft = 0.3048 m (exact definitions, see the module docstring).
+    speed, length, extrapolate = _speed("18 kn", "3 ft", extrapolate=True)
+    assert speed == pytest.approx(18 * 1852 / 3600, rel=1e-14)
+    assert length == pytest.approx(0.9144, rel=1e-14)
+    assert extrapolate is True
+
+
+def test_edge_converts_the_public_default_too():
+    assert _speed("2 m/s")[1] == 1.0
+
+
+def test_edge_refuses_a_wrong_unit_naming_the_argument_value_and_dimension():
+    with pytest.raises(UnitInputError, match=r"length: '3 s' has dimension \[time\]; expected"):
+        _speed("2 m/s", "3 s")
+
+
+def test_edge_keeps_pythons_own_message_for_a_wrong_call():
+    with pytest.raises(TypeError, match=r"_speed\(\) got an unexpected keyword argument 'x'"):
+        _speed("2 m/s", x=1)
+
+
+def test_edge_refuses_at_decoration_an_argument_the_core_does_not_take():
+    with pytest.raises(TypeError, match="takes no width"):
+        @si_edge(_speed_si, speed="[length] / [time]")
+        def _bad(speed, width="1 m"):
+            """Not a valid edge."""
+
+
+@pytest.mark.parametrize("public", [fp.fresh_water, fp.sea_water, fp.glycerol_water, fp.air,
+                                    fp.nitrogen, fp.standard_atmosphere])
+def test_public_fluid_functions_keep_their_signature_and_numpydoc_docstring(public):
+    parameters = inspect.signature(public).parameters
+    assert "extrapolate" in parameters and parameters["extrapolate"].default is False
+    assert "Parameters\n    ----------" in public.__doc__

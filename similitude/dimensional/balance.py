@@ -33,6 +33,7 @@ from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Any
 
+import pandas as pd
 import pint
 
 from similitude.dimensional import groups as _catalogue
@@ -65,6 +66,8 @@ class TermBalance:
         Name of the reference term.
     unit : str
         SI unit of the terms.
+    threshold : float
+        Ratio to the reference below which a term is negligible [-].
     dominant_prototype, dominant_model : tuple of str
         Terms not negligible (the dominant balance); empty for the model when no model scales
         were given.
@@ -268,33 +271,10 @@ def term_balance(terms: Mapping[str, str] | Sequence[str],
     ratio_i = |T_i| / |T_ref|; negligible_i = ratio_i < threshold; the regime changes where
     negligible differs between prototype and model.
     """
-    import pandas as pd
-
-    if isinstance(terms, Mapping):
-        items = [(str(k), v) for k, v in terms.items()]
-    elif isinstance(terms, Sequence) and not isinstance(terms, str):
-        items = [(str(v), v) for v in terms]
-    else:
-        raise InputError(f"terms: {terms!r} is not valid; expected a mapping name -> expression")
-    if len(items) < 2:
-        raise InputError("terms: at least two terms are needed to compare their magnitudes")
-    try:
-        threshold = float(threshold)
-    except (TypeError, ValueError):
-        threshold = float("nan")
-    if not (math.isfinite(threshold) and threshold > 0):
-        raise InputError(f"threshold: {threshold!r} is not valid; expected a positive number")
+    items = _term_items(terms)
+    threshold = _threshold(threshold)
     names = [n for n, _ in items]
-    if reference is None:
-        ref_index = 0
-    elif reference in names:
-        ref_index = names.index(reference)
-    elif reference in [e for _, e in items]:
-        ref_index = [e for _, e in items].index(reference)
-    else:
-        raise InputError(
-            f"reference: {reference!r} is not one of the terms ({', '.join(names)})"
-        )
+    ref_index = _reference_index(reference, items)
     parsed = [parse_term(expr, f"terms.{name}") for name, expr in items]
     proto = _scales(scales_prototype, "prototype")
     model = None
@@ -304,69 +284,37 @@ def term_balance(terms: Mapping[str, str] | Sequence[str],
 
     p_vals = [_evaluate(m, proto, f"terms.{n}", e) for m, (n, e) in zip(parsed, items,
                                                                          strict=True)]
-    # The dimension most terms share is the equation's; the reference wins ties.
-    dims = [v.dimensionality for v in p_vals]
-    counts = {d: dims.count(d) for d in dims}
-    best = max(counts.values())
-    common = dims[ref_index] if counts[dims[ref_index]] == best else \
-        next(d for d in dims if counts[d] == best)
-    like = next(i for i, d in enumerate(dims) if d == common)
-    for i, d in enumerate(dims):
-        if d != common:
-            raise InputError(
-                f"terms.{names[i]}: {items[i][1]!r} has dimension {_dim_text(p_vals[i])}, "
-                f"but term {names[like]!r} ({items[like][1]!r}) has {_dim_text(p_vals[like])}"
-            )
+    _check_dimensions(p_vals, items, ref_index)
     unit = _si_unit(p_vals[ref_index])
     m_vals = None
     if model is not None:
         m_vals = [_evaluate(m, model, f"terms.{n}", e) for m, (n, e) in zip(parsed, items,
                                                                              strict=True)]
-
-    def ratios(vals):
-        ref = abs(float(vals[ref_index].magnitude))
-        if ref == 0:
-            raise InputError(f"reference: term {names[ref_index]!r} is zero; choose another")
-        return [abs(float(v.magnitude)) / ref for v in vals]
-
-    p_ratio = ratios(p_vals)
-    m_ratio = ratios(m_vals) if m_vals is not None else None
+    p_ratio = _ratios(p_vals, ref_index, names)
+    m_ratio = _ratios(m_vals, ref_index, names) if m_vals is not None else None
     rows = []
     changes = []
     for i, (name, expr) in enumerate(items):
-        ratio_exps = dict(parsed[i].exponents)
-        for k, e in parsed[ref_index].exponents.items():
-            ratio_exps[k] = ratio_exps.get(k, Fraction(0)) - e
-        ratio_exps = {k: e for k, e in ratio_exps.items() if e != 0}
         neg_p = i != ref_index and p_ratio[i] < threshold
         row = {
             "term": name,
             "expression": expr,
             f"prototype magnitude [{unit}]": float(p_vals[i].magnitude),
             "ratio to reference": p_ratio[i],
-            "group": _group_label(ratio_exps, proto) if i != ref_index else "reference",
+            "group": (_group_label(_ratio_exponents(parsed[i], parsed[ref_index]), proto)
+                      if i != ref_index else "reference"),
             "negligible at prototype": neg_p,
         }
         if m_vals is not None:
             neg_m = i != ref_index and m_ratio[i] < threshold
-            change = neg_p != neg_m
             row.update({
                 f"model magnitude [{unit}]": float(m_vals[i].magnitude),
                 "model ratio": m_ratio[i],
                 "negligible in model": neg_m,
-                "regime change": change,
+                "regime change": neg_p != neg_m,
             })
-            if change:
-                if neg_p:
-                    changes.append(
-                        f"{name}: negligible at full scale (ratio {p_ratio[i]:.3g}) but not in "
-                        f"the model (ratio {m_ratio[i]:.3g} >= {threshold:g})"
-                    )
-                else:
-                    changes.append(
-                        f"{name}: matters at full scale (ratio {p_ratio[i]:.3g}) but is "
-                        f"negligible in the model (ratio {m_ratio[i]:.3g} < {threshold:g})"
-                    )
+            if neg_p != neg_m:
+                changes.append(_change_sentence(name, neg_p, p_ratio[i], m_ratio[i], threshold))
         else:
             row.update({
                 f"model magnitude [{unit}]": float("nan"),
@@ -381,3 +329,85 @@ def term_balance(terms: Mapping[str, str] | Sequence[str],
         if m_vals is not None else ()
     return TermBalance(table, names[ref_index], unit, threshold, dominant_p, dominant_m,
                        tuple(changes))
+
+
+def _term_items(terms: Mapping[str, str] | Sequence[str]) -> list[tuple[str, Any]]:
+    """(name, expression) of each term; at least two are needed."""
+    if isinstance(terms, Mapping):
+        items = [(str(k), v) for k, v in terms.items()]
+    elif isinstance(terms, Sequence) and not isinstance(terms, str):
+        items = [(str(v), v) for v in terms]
+    else:
+        raise InputError(f"terms: {terms!r} is not valid; expected a mapping name -> expression")
+    if len(items) < 2:
+        raise InputError("terms: at least two terms are needed to compare their magnitudes")
+    return items
+
+
+def _threshold(threshold: Any) -> float:
+    """The negligibility threshold as a positive float."""
+    try:
+        threshold = float(threshold)
+    except (TypeError, ValueError):
+        threshold = float("nan")
+    if not (math.isfinite(threshold) and threshold > 0):
+        raise InputError(f"threshold: {threshold!r} is not valid; expected a positive number")
+    return threshold
+
+
+def _reference_index(reference: str | None, items: list[tuple[str, Any]]) -> int:
+    """Index of the reference term, named by its name or its expression (the first: None)."""
+    names = [n for n, _ in items]
+    expressions = [e for _, e in items]
+    if reference is None:
+        return 0
+    if reference in names:
+        return names.index(reference)
+    if reference in expressions:
+        return expressions.index(reference)
+    raise InputError(f"reference: {reference!r} is not one of the terms ({', '.join(names)})")
+
+
+def _check_dimensions(values: list[pint.Quantity], items: list[tuple[str, Any]],
+                      ref_index: int) -> None:
+    """Every term has the equation's dimension: the one most terms share (the reference wins
+    ties); the first odd term is named with both dimensions."""
+    dims = [v.dimensionality for v in values]
+    counts = {d: dims.count(d) for d in dims}
+    best = max(counts.values())
+    common = dims[ref_index] if counts[dims[ref_index]] == best else \
+        next(d for d in dims if counts[d] == best)
+    like = next(i for i, d in enumerate(dims) if d == common)
+    for i, d in enumerate(dims):
+        if d != common:
+            raise InputError(
+                f"terms.{items[i][0]}: {items[i][1]!r} has dimension {_dim_text(values[i])}, "
+                f"but term {items[like][0]!r} ({items[like][1]!r}) has "
+                f"{_dim_text(values[like])}"
+            )
+
+
+def _ratios(values: list[pint.Quantity], ref_index: int, names: list[str]) -> list[float]:
+    """|T_i| / |T_ref| of each term."""
+    ref = abs(float(values[ref_index].magnitude))
+    if ref == 0:
+        raise InputError(f"reference: term {names[ref_index]!r} is zero; choose another")
+    return [abs(float(v.magnitude)) / ref for v in values]
+
+
+def _ratio_exponents(term: _Monomial, reference: _Monomial) -> dict[str, Fraction]:
+    """Symbol exponents of the ratio term / reference (zero exponents dropped)."""
+    exps = dict(term.exponents)
+    for k, e in reference.exponents.items():
+        exps[k] = exps.get(k, Fraction(0)) - e
+    return {k: e for k, e in exps.items() if e != 0}
+
+
+def _change_sentence(name: str, negligible_prototype: bool, p_ratio: float, m_ratio: float,
+                     threshold: float) -> str:
+    """One sentence on a term whose negligibility differs between prototype and model."""
+    if negligible_prototype:
+        return (f"{name}: negligible at full scale (ratio {p_ratio:.3g}) but not in "
+                f"the model (ratio {m_ratio:.3g} >= {threshold:g})")
+    return (f"{name}: matters at full scale (ratio {p_ratio:.3g}) but is "
+            f"negligible in the model (ratio {m_ratio:.3g} < {threshold:g})")

@@ -399,6 +399,7 @@ def scale_bounds(case: Case) -> tuple[float, float]:
 
 
 def _fluid_options(case: Case) -> tuple[FluidOption, ...]:
+    """The admissible model fluids with their search axes; InputError when none is left."""
     fac, req = case.facility, case.request
     lam_lo, lam_hi = scale_bounds(case)
     lam_axis = Axis("lam", lam_lo, lam_hi, True)
@@ -420,48 +421,18 @@ def _fluid_options(case: Case) -> tuple[FluidOption, ...]:
             reasons.append(f"{info.name}: needs match.model_fluid with its mass_fraction")
             continue
         if spec is not None:
-            _check_composition(info, spec, "match.model_fluid")
-            allowed = {fluid_info(n, "facility.fluids").name for n in fac.fluids}
-            if info.name not in allowed:
-                raise InputError(
-                    f"match.model_fluid.name: {spec.name!r} is not a fluid of the facility; "
-                    f"expected one of {', '.join(sorted(allowed))}"
-                )
-            t_lo = t_hi = float(spec.temperature)
-            tr = info.range_of("temperature")
-            if tr is not None and not (tr.low <= t_lo <= tr.high):
-                raise OutOfRangeError(
-                    f"match.model_fluid.temperature: {tr.value_text(t_lo)} is outside the "
-                    f"validity range of {info.name}: {tr.text()}"
-                )
-        else:
-            t_lo, t_hi = fac.temperature_range
-            tr = info.range_of("temperature")
-            if tr is not None:
-                t_lo, t_hi = max(t_lo, tr.low), min(t_hi, tr.high)
-            if t_lo > t_hi:
-                reasons.append(
-                    f"{info.name}: facility.temperature_range {fac.temperature_range[0]:g}-"
-                    f"{fac.temperature_range[1]:g} K lies outside its validity "
-                    f"{tr.text() if tr else ''}"
-                )
-                continue
-        if spec is not None and spec.pressure is not None:
-            p_lo = p_hi = float(spec.pressure)
-        elif fac.pressure_range is not None and (info.kind == "gas" or _uses_pressure(case)):
-            p_lo, p_hi = fac.pressure_range
-            pr = info.range_of("pressure")
-            if pr is not None and info.kind == "gas":
-                p_lo, p_hi = max(p_lo, pr.low), min(p_hi, pr.high)
-            p_lo = max(p_lo, 1.0)
-            if p_lo > p_hi:
-                reasons.append(f"{info.name}: facility.pressure_range outside its validity")
-                continue
-        else:
-            p_lo = p_hi = P_ATM
+            _check_fixed_fluid(case, info, spec)
+        temperatures = _temperature_bounds(case, info, spec)
+        if isinstance(temperatures, str):
+            reasons.append(temperatures)
+            continue
+        pressures = _pressure_bounds(case, info, spec)
+        if isinstance(pressures, str):
+            reasons.append(pressures)
+            continue
         axes = {
-            "T": Axis("T", t_lo, t_hi, False),
-            "p": Axis("p", p_lo, p_hi, True),
+            "T": Axis("T", *temperatures, False),
+            "p": Axis("p", *pressures, True),
             "lam": lam_axis,
             "V": v_axis,
         }
@@ -471,6 +442,61 @@ def _fluid_options(case: Case) -> tuple[FluidOption, ...]:
     return tuple(options)
 
 
+def _check_fixed_fluid(case: Case, info, spec: FluidSpec) -> None:
+    """The fixed model fluid of the request: its composition, a fluid of the facility, at a
+    temperature inside its validity range."""
+    _check_composition(info, spec, "match.model_fluid")
+    allowed = {fluid_info(n, "facility.fluids").name for n in case.facility.fluids}
+    if info.name not in allowed:
+        raise InputError(
+            f"match.model_fluid.name: {spec.name!r} is not a fluid of the facility; "
+            f"expected one of {', '.join(sorted(allowed))}"
+        )
+    t = float(spec.temperature)
+    tr = info.range_of("temperature")
+    if tr is not None and not (tr.low <= t <= tr.high):
+        raise OutOfRangeError(
+            f"match.model_fluid.temperature: {tr.value_text(t)} is outside the "
+            f"validity range of {info.name}: {tr.text()}"
+        )
+
+
+def _temperature_bounds(case: Case, info, spec: FluidSpec | None) -> tuple[float, float] | str:
+    """Temperature range [K] of the search: the fixed fluid's, or the facility's range inside
+    the fluid's validity; a reason in words when nothing is left."""
+    if spec is not None:
+        return float(spec.temperature), float(spec.temperature)
+    fac = case.facility
+    t_lo, t_hi = fac.temperature_range
+    tr = info.range_of("temperature")
+    if tr is not None:
+        t_lo, t_hi = max(t_lo, tr.low), min(t_hi, tr.high)
+    if t_lo > t_hi:
+        return (f"{info.name}: facility.temperature_range {fac.temperature_range[0]:g}-"
+                f"{fac.temperature_range[1]:g} K lies outside its validity "
+                f"{tr.text() if tr else ''}")
+    return t_lo, t_hi
+
+
+def _pressure_bounds(case: Case, info, spec: FluidSpec | None) -> tuple[float, float] | str:
+    """Static pressure range [Pa] of the search: the fixed fluid's pressure, the facility's
+    range where it sets the pressure (a gas, or a request that uses it), else 1 atm; a
+    reason in words when nothing is left."""
+    fac = case.facility
+    if spec is not None and spec.pressure is not None:
+        return float(spec.pressure), float(spec.pressure)
+    if fac.pressure_range is not None and (info.kind == "gas" or _uses_pressure(case)):
+        p_lo, p_hi = fac.pressure_range
+        pr = info.range_of("pressure")
+        if pr is not None and info.kind == "gas":
+            p_lo, p_hi = max(p_lo, pr.low), min(p_hi, pr.high)
+        p_lo = max(p_lo, 1.0)
+        if p_lo > p_hi:
+            return f"{info.name}: facility.pressure_range outside its validity"
+        return p_lo, p_hi
+    return P_ATM, P_ATM
+
+
 class TooManyResiduals(InputError):
     """More exact groups to solve through the fluid state than the solver handles (one)."""
 
@@ -478,27 +504,8 @@ class TooManyResiduals(InputError):
 def build_problem(case: Case) -> Problem:
     """Check the request against the degrees of freedom and set up the search."""
     req, proto = case.request, case.prototype
-    if not req.exact:
-        raise InputError("match.exact: empty; expected at least one group to match exactly "
-                         "(e.g. 'froude' for a free-surface test)")
+    _check_request(case)
     propeller = proto.kind == "propeller"
-    if propeller and not proto.rotation_rates:
-        raise InputError("prototype.rotation_rates: empty for a propeller; expected one "
-                         "rotation rate [1/s] per speed")
-    if proto.rotation_rates and len(proto.rotation_rates) != len(proto.speeds):
-        raise InputError(
-            f"prototype.rotation_rates: {len(proto.rotation_rates)} values for "
-            f"{len(proto.speeds)} speeds; expected one per speed"
-        )
-    for g in req.exact:
-        if g == "depth_froude" and proto.water_depth is None:
-            raise InputError("match.exact: 'depth_froude' needs prototype.water_depth; "
-                             "expected a water depth [m]")
-        if g == "advance_ratio" and not proto.rotation_rates:
-            raise InputError("match.exact: 'advance_ratio' needs prototype.rotation_rates")
-        if g == "depth_froude" and not case.facility.free_surface:
-            raise InputError("match.exact: 'depth_froude' needs a free-surface facility "
-                             f"(towing tank or wave basin), not {case.facility.kind!r}")
     options = _fluid_options(case)
     pside = prototype_side(case)
     pgroups = {}
@@ -518,7 +525,41 @@ def build_problem(case: Case) -> Problem:
         speed_group = next((g for g in req.exact if SPEED_EXPONENT[g] != 0.0
                             and g != "cavitation"), "cavitation")
     residual = tuple(g for g in req.exact if g != speed_group and g not in FREE_GROUPS)
-    # Degrees of freedom: the speed (always) plus each axis with a range in some fluid.
+    _check_degrees_of_freedom(req.exact, options, speed_group, residual)
+    report = tuple(g for g in dict.fromkeys(req.report) if g not in req.exact)
+    return Problem(case, propeller, pside, pgroups, design, lowest, tuple(req.exact),
+                   speed_group, residual, report, options)
+
+
+def _check_request(case: Case) -> None:
+    """The exact groups the request asks for have what they need in the case."""
+    req, proto = case.request, case.prototype
+    if not req.exact:
+        raise InputError("match.exact: empty; expected at least one group to match exactly "
+                         "(e.g. 'froude' for a free-surface test)")
+    if proto.kind == "propeller" and not proto.rotation_rates:
+        raise InputError("prototype.rotation_rates: empty for a propeller; expected one "
+                         "rotation rate [1/s] per speed")
+    if proto.rotation_rates and len(proto.rotation_rates) != len(proto.speeds):
+        raise InputError(
+            f"prototype.rotation_rates: {len(proto.rotation_rates)} values for "
+            f"{len(proto.speeds)} speeds; expected one per speed"
+        )
+    for g in req.exact:
+        if g == "depth_froude" and proto.water_depth is None:
+            raise InputError("match.exact: 'depth_froude' needs prototype.water_depth; "
+                             "expected a water depth [m]")
+        if g == "advance_ratio" and not proto.rotation_rates:
+            raise InputError("match.exact: 'advance_ratio' needs prototype.rotation_rates")
+        if g == "depth_froude" and not case.facility.free_surface:
+            raise InputError("match.exact: 'depth_froude' needs a free-surface facility "
+                             f"(towing tank or wave basin), not {case.facility.kind!r}")
+
+
+def _check_degrees_of_freedom(exact: tuple[str, ...], options: tuple[FluidOption, ...],
+                              speed_group: str | None, residual: tuple[str, ...]) -> None:
+    """No more exact groups than degrees of freedom: the speed (always) plus each axis with a
+    range in some fluid; and at most one residual group (what the search solves)."""
     free_axes = set()
     for o in options:
         free_axes |= {k for k, a in o.axes.items() if a.free and k != "V"}
@@ -527,20 +568,17 @@ def build_problem(case: Case) -> Problem:
     if needed > dof:
         words = ", ".join(AXIS_WORDS[a] for a in sorted(free_axes)) or "none"
         raise InputError(
-            f"match.exact: {list(req.exact)!r} asks {needed} groups to be exact but the case "
+            f"match.exact: {list(exact)!r} asks {needed} groups to be exact but the case "
             f"leaves {dof} degree(s) of freedom (model speed; free: {words}); expected at most "
             f"{dof} exact groups besides {', '.join(FREE_GROUPS)}, or free the scale, "
             "temperature or pressure"
         )
     if len(residual) > 1:
         raise TooManyResiduals(
-            f"match.exact: {list(req.exact)!r} needs {len(residual)} groups solved together "
+            f"match.exact: {list(exact)!r} needs {len(residual)} groups solved together "
             "through the fluid state; this planner solves at most one beyond the group that "
             "fixes the speed; expected fewer exact groups (report the others)"
         )
-    report = tuple(g for g in dict.fromkeys(req.report) if g not in req.exact)
-    return Problem(case, propeller, pside, pgroups, design, lowest, tuple(req.exact),
-                   speed_group, residual, report, options)
 
 
 # --------------------------------------------------------------------------------------------

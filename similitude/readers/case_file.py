@@ -20,12 +20,13 @@ the scale is ``"1:25"``. Everything is converted to SI here; the dataclasses hol
 Reading never stops at the first problem: every problem found is collected and reported at once
 in one :class:`similitude.errors.InputError`, one line per problem, each naming the key path,
 the value and what was expected. Unknown keys are problems too, with a "did you mean" hint.
+The reading of single fields (tables, choices, quantities with units and their limits) is the
+generic field reader of :mod:`similitude.readers.fields`; this module holds what is particular
+to case and facility files.
 """
 
 from __future__ import annotations
 
-import datetime as _dt
-import difflib
 import math
 import tomllib
 from collections.abc import Mapping
@@ -36,7 +37,7 @@ from fluids_props import get_fluid, list_fluids
 from similitude.constants import P_ATM
 from similitude.correlations.friction import FRICTION_LINES
 from similitude.correlations.waves import SPECTRA
-from similitude.errors import BAD_INPUT_ERRORS, InputError
+from similitude.errors import InputError
 from similitude.planning.case import (
     MATCHABLE_GROUPS,
     OBJECTIVES,
@@ -52,39 +53,25 @@ from similitude.planning.case import (
     WaveCondition,
 )
 from similitude.planning.facilities import FACILITY_KINDS, Facility
-from similitude.units import (
-    UnitInputError,
-    parse_quantity,
-    parse_scale,
-    to_rotation_rate,
-    to_si,
+from similitude.readers.fields import (
+    ACCEL,
+    AREA,
+    LENGTH,
+    MISSING,
+    PRESSURE,
+    RATE,
+    RATIO,
+    SPEED,
+    TEMPERATURE,
+    TIME,
+    VOLUME,
+    FieldReader,
+    key_path,
+    show,
 )
+from similitude.units import UnitInputError, parse_scale
 
 __all__ = ["load_case", "load_facility", "parse_case", "parse_facility", "CASE_KEYS"]
-
-# Dimensions, with a phrase for messages ------------------------------------------------------
-LENGTH = "[length]"
-AREA = "[length] ** 2"
-VOLUME = "[length] ** 3"
-SPEED = "[length] / [time]"
-TIME = "[time]"
-TEMPERATURE = "[temperature]"
-PRESSURE = "[mass] / [length] / [time] ** 2"
-RATE = "1 / [time]"
-ACCEL = "[length] / [time] ** 2"
-RATIO = "dimensionless"
-
-_DIM_WORDS = {
-    LENGTH: "a length", AREA: "an area", VOLUME: "a volume", SPEED: "a speed", TIME: "a time",
-    TEMPERATURE: "a temperature", PRESSURE: "a pressure", RATE: "a rotation rate or frequency",
-    ACCEL: "an acceleration", RATIO: "a dimensionless number",
-}
-_DIM_EXAMPLES = {
-    LENGTH: "'3.2 m' or '10 ft'", AREA: "'12 m^2'", VOLUME: "'2100 m^3'",
-    SPEED: "'2.5 m/s' or '18 kn'", TIME: "'10 min' or '3 h'", TEMPERATURE: "'15 degC'",
-    PRESSURE: "'101325 Pa' or '2 bar'", RATE: "'12 Hz' or '600 rpm'", ACCEL: "'0.5 m/s^2'",
-    RATIO: "'0.035' or '35 g/kg'",
-}
 
 #: Plausibility limits [SI] beyond which a value is taken for a typing slip (common practice;
 #: generous on purpose: they catch "18000 kn", not unusual designs).
@@ -145,249 +132,10 @@ CASE_KEYS: dict[str, tuple[str, ...]] = {
     "runs": RUNS_KEYS, "runs.loading": LOADING_KEYS, "runs.waves": WAVE_KEYS,
 }
 
-_MISSING = object()
-
-
-def _show(value: Any) -> str:
-    """A value as written in a message, shortened."""
-    text = repr(value)
-    return text if len(text) <= 60 else text[:57] + "..."
-
-
 def _show_path(path: str) -> str:
     """A path as written in a message; a long one keeps its end (the file name)."""
     text = repr(path)
     return text if len(text) <= 80 else "'..." + text[-76:]
-
-
-def _join(path: str, key: str | int) -> str:
-    if isinstance(key, int):
-        return f"{path}[{key}]"
-    return f"{path}.{key}" if path else key
-
-
-class _Reader:
-    """Collects problems while reading; never raises until :meth:`finish`."""
-
-    def __init__(self, where: str = "") -> None:
-        self.problems: list[str] = []
-        self.where = where  # prefix naming the file, for facility files
-
-    # -- bookkeeping --------------------------------------------------------------------
-    def problem(self, path: str, text: str) -> None:
-        prefix = f"{self.where}: " if self.where else ""
-        self.problems.append(f"{prefix}{path}: {text}")
-
-    def finish(self) -> None:
-        if self.problems:
-            raise InputError(self.problems)
-
-    # -- tables -------------------------------------------------------------------------
-    def table(self, data: Any, path: str, allowed: tuple[str, ...],
-              required: tuple[str, ...] = ()) -> dict:
-        """Check a table: its type, unknown keys (with a hint) and required keys."""
-        if not isinstance(data, Mapping):
-            self.problem(path, f"{_show(data)} is not a table; expected a TOML table "
-                         f"[{path}] with keys " + ", ".join(allowed))
-            return {}
-        for key in data:
-            if key not in allowed:
-                close = difflib.get_close_matches(str(key), allowed, n=1, cutoff=0.6)
-                hint = f"; did you mean {close[0]!r}?" if close else ""
-                if path and key in TOP_KEYS:
-                    # TOML puts a key written after [table] into that table.
-                    hint = (f"; a top-level {key!r} must come before the first [table] of "
-                            "the file (TOML reads it as part of the table above it)")
-                self.problem(_join(path, key), "unknown key" + hint
-                             + ("" if hint else "; expected one of " + ", ".join(allowed)))
-        for key in required:
-            if key not in data:
-                self.problem(_join(path, key), "missing; this key is required")
-        return {k: v for k, v in data.items() if k in allowed}
-
-    def tables(self, data: Any, path: str) -> list:
-        """An array of tables ([[path]]) or a single table."""
-        if isinstance(data, Mapping):
-            return [data]
-        if isinstance(data, list):
-            return data
-        self.problem(path, f"{_show(data)} is not valid; expected [[{path}]] tables")
-        return []
-
-    # -- scalars ------------------------------------------------------------------------
-    def text(self, data: Mapping, key: str, path: str, default: Any = None) -> Any:
-        value = data.get(key, _MISSING)
-        if value is _MISSING:
-            return default
-        if isinstance(value, (_dt.date, _dt.datetime, _dt.time)):
-            return value.isoformat()
-        if not isinstance(value, str):
-            self.problem(_join(path, key), f"{_show(value)} is not text; expected a string")
-            return default
-        return value
-
-    def choice(self, data: Mapping, key: str, path: str, allowed: tuple[str, ...],
-               default: Any = None, required: bool = False) -> Any:
-        value = data.get(key, _MISSING)
-        if value is _MISSING:
-            if required:
-                self.problem(_join(path, key), "missing; expected one of " + ", ".join(allowed))
-            return default
-        return self.choose(value, _join(path, key), allowed, default)
-
-    def choose(self, value: Any, path: str, allowed: tuple[str, ...], default: Any = None):
-        if isinstance(value, str):
-            key = value.strip().lower().replace("-", "_").replace(" ", "_")
-            if key in allowed:
-                return key
-            close = difflib.get_close_matches(key, allowed, n=1, cutoff=0.6)
-            hint = f" (did you mean {close[0]!r}?)" if close else ""
-        else:
-            hint = ""
-        self.problem(path, f"{_show(value)} is not allowed{hint}; expected one of "
-                     + ", ".join(allowed))
-        return default
-
-    def flag(self, data: Mapping, key: str, path: str, default: bool = False) -> bool:
-        value = data.get(key, _MISSING)
-        if value is _MISSING:
-            return default
-        if not isinstance(value, bool):
-            self.problem(_join(path, key), f"{_show(value)} is not valid; expected true or false")
-            return default
-        return value
-
-    def integer(self, data: Mapping, key: str, path: str, low: int, high: int,
-                default: int) -> int:
-        value = data.get(key, _MISSING)
-        if value is _MISSING:
-            return default
-        if isinstance(value, bool) or not isinstance(value, int) or not low <= value <= high:
-            self.problem(_join(path, key), f"{_show(value)} is not valid; expected a whole "
-                         f"number from {low} to {high}")
-            return default
-        return value
-
-    def quantity(self, value: Any, path: str, dim: str, limits: tuple[float, float],
-                 strict_low: bool = True, bare_unit: str | None = None) -> float | None:
-        """One quantity string → SI float, or None after recording the problem.
-
-        ``bare_unit``: the unit a bare number is read in (dimensionless inputs and angles);
-        otherwise a bare number is refused for a dimensional quantity.
-        """
-        what = _DIM_WORDS.get(dim, dim)
-        if isinstance(value, bool) or not isinstance(value, (str, int, float)):
-            self.problem(path, f"{_show(value)} is not valid; expected {what} as a string "
-                         f"with a unit, e.g. {_DIM_EXAMPLES.get(dim, '')}")
-            return None
-        if isinstance(value, (int, float)) and dim != RATIO and bare_unit is None:
-            self.problem(path, f"{_show(value)} has no unit; expected {what} as a string "
-                         f"with a unit, e.g. {_DIM_EXAMPLES.get(dim, '')}")
-            return None
-        try:
-            if bare_unit is not None:
-                # Angles: a bare number is read in bare_unit, a string may carry its unit.
-                q = parse_quantity(value, path)
-                if not q.dimensionless:
-                    raise UnitInputError(f"{path}: {value!r} is not an angle; expected "
-                                         f"a number of degrees or a string such as '180 deg'")
-                plain = str(q.units) in ("dimensionless", "")
-                si = float(q.magnitude) if plain else float(q.to(bare_unit).magnitude)
-            else:
-                # n of J = V/(nD) counts revolutions (pint counts rpm in radians).
-                si = to_rotation_rate(value, path) if dim == RATE else to_si(value, dim, path)
-        except BAD_INPUT_ERRORS as exc:
-            text = str(exc)
-            prefix = f"{path}: "
-            self.problem(path, text[len(prefix):] if text.startswith(prefix) else text)
-            return None
-        except Exception as exc:  # pint can fail in many ways on odd strings
-            self.problem(path, f"cannot read {_show(value)} ({exc.__class__.__name__}); "
-                         f"expected {what}, e.g. {_DIM_EXAMPLES.get(dim, '')}")
-            return None
-        if not isinstance(si, float):
-            self.problem(path, f"{_show(value)} is not one value; expected a single {what}")
-            return None
-        low, high = limits
-        too_low = si <= low if strict_low else si < low
-        if not math.isfinite(si) or too_low or si > high:
-            shown = _si_text(si, dim, bare_unit)
-            rel = ">" if strict_low else ">="
-            self.problem(path, f"{_show(value)} ({shown}) is out of range; expected {what} "
-                         f"{rel} {_si_text(low, dim, bare_unit)} and <= "
-                         f"{_si_text(high, dim, bare_unit)}")
-            return None
-        return si
-
-    def field(self, data: Mapping, key: str, path: str, dim: str, limits: tuple[float, float],
-              required: bool = False, **kw) -> float | None:
-        value = data.get(key, _MISSING)
-        if value is _MISSING:
-            if required:
-                self.problem(_join(path, key), f"missing; expected {_DIM_WORDS.get(dim, dim)}, "
-                             f"e.g. {_DIM_EXAMPLES.get(dim, '')}")
-            return None
-        return self.quantity(value, _join(path, key), dim, limits, **kw)
-
-    def quantities(self, data: Mapping, key: str, path: str, dim: str,
-                   limits: tuple[float, float], required: bool = False,
-                   **kw) -> tuple[float, ...] | None:
-        """A list of quantities (a single value reads as a list of one)."""
-        value = data.get(key, _MISSING)
-        p = _join(path, key)
-        if value is _MISSING:
-            if required:
-                self.problem(p, f"missing; expected a list of {_DIM_WORDS.get(dim, dim)} "
-                             f"values, e.g. [{_DIM_EXAMPLES.get(dim, '')}]")
-            return None
-        if not isinstance(value, list):
-            value = [value]
-            single = True
-        else:
-            single = False
-        if not value:
-            self.problem(p, "empty list; expected at least one value")
-            return None
-        out = []
-        ok = True
-        for i, item in enumerate(value):
-            si = self.quantity(item, p if single else _join(p, i), dim, limits, **kw)
-            ok = ok and si is not None
-            out.append(si)
-        return tuple(out) if ok else None
-
-    def limits(self, data: Mapping, key: str, path: str, dim: str,
-               limits: tuple[float, float], required: bool = False) -> tuple | None:
-        """A [low, high] pair of quantities."""
-        value = data.get(key, _MISSING)
-        p = _join(path, key)
-        if value is _MISSING:
-            if required:
-                self.problem(p, f"missing; expected [lowest, highest] as two "
-                             f"{_DIM_WORDS.get(dim, dim)} values")
-            return None
-        if not isinstance(value, list) or len(value) != 2:
-            self.problem(p, f"{_show(value)} is not valid; expected [lowest, highest], two "
-                         f"values such as [{_DIM_EXAMPLES.get(dim, '')}]")
-            return None
-        lo = self.quantity(value[0], _join(p, 0), dim, limits, strict_low=False)
-        hi = self.quantity(value[1], _join(p, 1), dim, limits, strict_low=False)
-        if lo is None or hi is None:
-            return None
-        if not (lo <= hi and hi > 0):
-            self.problem(p, f"{_show(value)} is not valid; expected lowest <= highest")
-            return None
-        return (lo, hi)
-
-
-def _si_text(si: float, dim: str, unit: str | None = None) -> str:
-    if unit is not None:
-        return f"{si:g} {unit}"
-    if dim == TEMPERATURE:
-        return f"{si:g} K"
-    sym = {LENGTH: "m", AREA: "m^2", VOLUME: "m^3", SPEED: "m/s", TIME: "s", PRESSURE: "Pa",
-           RATE: "1/s", ACCEL: "m/s^2", RATIO: ""}.get(dim, "")
-    return f"{si:g} {sym}".strip()
 
 
 # -- fluids ---------------------------------------------------------------------------------
@@ -396,22 +144,22 @@ def _fluid_names() -> tuple[str, ...]:
     return tuple(info.name for info in list_fluids())
 
 
-def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
+def _read_fluid(r: FieldReader, data: Any, path: str) -> FluidSpec | None:
     t = r.table(data, path, FLUID_KEYS, required=("name", "temperature"))
     if not t and not isinstance(data, Mapping):
         return None
     name = None
     info = None
-    raw = t.get("name", _MISSING)
-    if raw is not _MISSING:
+    raw = t.get("name", MISSING)
+    if raw is not MISSING:
         if isinstance(raw, str):
             try:
                 info = get_fluid(raw)
                 name = info.name
             except ValueError:
-                r.choose(raw, _join(path, "name"), _fluid_names())
+                r.choose(raw, key_path(path, "name"), _fluid_names())
         else:
-            r.choose(raw, _join(path, "name"), _fluid_names())
+            r.choose(raw, key_path(path, "name"), _fluid_names())
     temp = r.field(t, "temperature", path, TEMPERATURE, _LIMITS["temperature"])
     pressure = r.field(t, "pressure", path, PRESSURE, _LIMITS["pressure"])
     salinity = r.field(t, "salinity", path, RATIO, (0.0, 0.2), strict_low=False)
@@ -424,16 +172,16 @@ def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
             if value is None or rng is None:
                 continue
             if not rng.low <= value <= rng.high:
-                r.problem(_join(path, key), f"{_show(t[key])} is outside the validity range "
+                r.problem(key_path(path, key), f"{show(t[key])} is outside the validity range "
                           f"of {info.name}: {rng.text()}")
         if salinity is not None and info.range_of("salinity") is None:
-            r.problem(_join(path, "salinity"), f"given, but {info.name} has no salinity; "
+            r.problem(key_path(path, "salinity"), f"given, but {info.name} has no salinity; "
                       "expected it only for sea_water")
         if fraction is not None and info.range_of("mass_fraction") is None:
-            r.problem(_join(path, "mass_fraction"), f"given, but {info.name} is not a mixture; "
+            r.problem(key_path(path, "mass_fraction"), f"given, but {info.name} is not a mixture; "
                       "expected it only for glycerol_water")
         if humidity is not None and info.kind != "gas":
-            r.problem(_join(path, "humidity"), f"given, but {info.name} is not a gas; "
+            r.problem(key_path(path, "humidity"), f"given, but {info.name} is not a gas; "
                       "expected it only for air")
     if name is None or temp is None:
         return None
@@ -448,7 +196,7 @@ def _read_fluid(r: _Reader, data: Any, path: str) -> FluidSpec | None:
 
 # -- tables of the case ---------------------------------------------------------------------
 
-def _read_prototype(r: _Reader, data: Any) -> Prototype | None:
+def _read_prototype(r: FieldReader, data: Any) -> Prototype | None:
     path = "prototype"
     t = r.table(data, path, PROTOTYPE_KEYS, required=("kind", "length", "speeds", "fluid"))
     kind = r.choice(t, "kind", path, PROTOTYPE_KINDS)
@@ -485,7 +233,7 @@ def _read_prototype(r: _Reader, data: Any) -> Prototype | None:
         return None
 
 
-def _read_facility_table(r: _Reader, data: Any, path: str = "facility") -> Facility | None:
+def _read_facility_table(r: FieldReader, data: Any, path: str = "facility") -> Facility | None:
     keys = tuple(k for k in FACILITY_KEYS if k != "file")
     t = r.table(data, path, keys, required=("kind", "length", "width", "speed_limits"))
     kind = r.choice(t, "kind", path, FACILITY_KINDS)
@@ -494,29 +242,16 @@ def _read_facility_table(r: _Reader, data: Any, path: str = "facility") -> Facil
     length = r.field(t, "length", path, LENGTH, size)
     width = r.field(t, "width", path, LENGTH, size)
     if "depth" in t and "height" in t:
-        r.problem(_join(path, "height"), "given with depth; expected one of them (depth for "
+        r.problem(key_path(path, "height"), "given with depth; expected one of them (depth for "
                   "tanks and basins, height for a tunnel test section)")
     depth_key = "height" if "height" in t else "depth"
     depth = r.field(t, depth_key, path, LENGTH, size)
     if depth is None and "depth" not in t and "height" not in t:
-        r.problem(_join(path, "depth"), "missing; expected the water depth of a tank or basin "
+        r.problem(key_path(path, "depth"), "missing; expected the water depth of a tank or basin "
                   "(depth) or the test-section height of a tunnel (height), e.g. '3.5 m'")
     speeds = r.limits(t, "speed_limits", path, SPEED, _LIMITS["speed"])
-    fluids = None
-    if "fluids" in t:
-        raw = t["fluids"] if isinstance(t["fluids"], list) else [t["fluids"]]
-        fluids = []
-        names = _fluid_names()
-        for i, item in enumerate(raw):
-            p = _join(_join(path, "fluids"), i)
-            try:
-                if not isinstance(item, str):
-                    raise ValueError
-                fluids.append(get_fluid(item).name)
-            except ValueError:
-                r.choose(item, p, names)
-        if not raw:
-            r.problem(_join(path, "fluids"), "empty list; expected at least one fluid name")
+    fluids = _read_fluid_names(r, t["fluids"], key_path(path, "fluids")) if "fluids" in t \
+        else None
     temps = r.limits(t, "temperature_limits", path, TEMPERATURE, _LIMITS["temperature"])
     pressures = r.limits(t, "pressure_limits", path, PRESSURE, _LIMITS["pressure"])
     accel = r.field(t, "acceleration", path, ACCEL, _LIMITS["acceleration"])
@@ -529,10 +264,10 @@ def _read_facility_table(r: _Reader, data: Any, path: str = "facility") -> Facil
     longest = r.field(t, "longest_model", path, LENGTH, _LIMITS["model_length"])
     steady = r.field(t, "shortest_steady_time", path, TIME, (0.0, 3600.0))
     if shortest is not None and longest is not None and shortest > longest:
-        r.problem(_join(path, "shortest_model"), "longer than longest_model; expected "
+        r.problem(key_path(path, "shortest_model"), "longer than longest_model; expected "
                   "shortest_model <= longest_model")
     if kind in ("towing_tank", "wave_basin") and open_jet:
-        r.problem(_join(path, "open_jet"), f"true for a {kind}; expected it only for a "
+        r.problem(key_path(path, "open_jet"), f"true for a {kind}; expected it only for a "
                   "wind_tunnel")
     if None in (kind, length, width, depth, speeds):
         return None
@@ -553,7 +288,24 @@ def _read_facility_table(r: _Reader, data: Any, path: str = "facility") -> Facil
         return None
 
 
-def _read_matching(r: _Reader, data: Any) -> MatchRequest | None:
+def _read_fluid_names(r: FieldReader, value: Any, path: str) -> list[str]:
+    """Catalogue names of the fluids listed (a single name reads as a list of one)."""
+    raw = value if isinstance(value, list) else [value]
+    fluids = []
+    names = _fluid_names()
+    for i, item in enumerate(raw):
+        try:
+            if not isinstance(item, str):
+                raise ValueError
+            fluids.append(get_fluid(item).name)
+        except ValueError:
+            r.choose(item, key_path(path, i), names)
+    if not raw:
+        r.problem(path, "empty list; expected at least one fluid name")
+    return fluids
+
+
+def _read_matching(r: FieldReader, data: Any) -> MatchRequest | None:
     path = "matching"
     t = r.table(data, path, MATCHING_KEYS)
     kw: dict[str, Any] = {}
@@ -563,7 +315,7 @@ def _read_matching(r: _Reader, data: Any) -> MatchRequest | None:
         raw = t[key] if isinstance(t[key], list) else [t[key]]
         names = []
         for i, item in enumerate(raw):
-            g = r.choose(item, _join(_join(path, key), i), MATCHABLE_GROUPS)
+            g = r.choose(item, key_path(key_path(path, key), i), MATCHABLE_GROUPS)
             if g is not None:
                 names.append(g)
         if len(names) == len(raw):
@@ -580,7 +332,7 @@ def _read_matching(r: _Reader, data: Any) -> MatchRequest | None:
             lam = float("nan")
         lo, hi = _LIMITS["scale"]
         if not (math.isfinite(lam) and lo <= lam <= hi):
-            r.problem("matching.scale", f"{_show(t['scale'])} is not valid; expected a scale "
+            r.problem("matching.scale", f"{show(t['scale'])} is not valid; expected a scale "
                       f"such as '1:25' (prototype/model from {lo:g} to {hi:g})")
         else:
             kw["scale"] = lam
@@ -614,7 +366,7 @@ def _read_matching(r: _Reader, data: Any) -> MatchRequest | None:
         return None
 
 
-def _read_loading(r: _Reader, data: Any, path: str) -> LoadingCondition | None:
+def _read_loading(r: FieldReader, data: Any, path: str) -> LoadingCondition | None:
     t = r.table(data, path, LOADING_KEYS, required=("name",))
     name = r.text(t, "name", path)
     draught = r.field(t, "draught", path, LENGTH, _LIMITS["draught"])
@@ -625,7 +377,7 @@ def _read_loading(r: _Reader, data: Any, path: str) -> LoadingCondition | None:
     return LoadingCondition(name=name, draught=draught, trim=trim or 0.0, displacement=disp)
 
 
-def _read_wave(r: _Reader, data: Any, path: str) -> WaveCondition | None:
+def _read_wave(r: FieldReader, data: Any, path: str) -> WaveCondition | None:
     t = r.table(data, path, WAVE_KEYS, required=("kind",))
     kind = r.choice(t, "kind", path, WAVE_KINDS)
     name = r.text(t, "name", path, "")
@@ -647,22 +399,22 @@ def _read_wave(r: _Reader, data: Any, path: str) -> WaveCondition | None:
         for a, b in (("period", "length_ratio"), ("height", "steepness")):
             if (a in t) == (b in t):
                 given = f"both {a} and {b}" if a in t else f"neither {a} nor {b}"
-                r.problem(_join(path, a), f"{given} given; expected exactly one of them for a "
+                r.problem(key_path(path, a), f"{given} given; expected exactly one of them for a "
                           "regular wave")
         for key in ("significant_height", "peak_period", "spectrum", "gamma", "duration"):
             if key in t:
-                r.problem(_join(path, key), "given for a regular wave; expected it only for "
+                r.problem(key_path(path, key), "given for a regular wave; expected it only for "
                           "kind = 'irregular'")
     elif kind == "irregular":
         for key in ("significant_height", "peak_period"):
             if key not in t:
-                r.problem(_join(path, key), "missing; expected it for an irregular sea")
+                r.problem(key_path(path, key), "missing; expected it for an irregular sea")
         for key in ("period", "length_ratio", "height", "steepness"):
             if key in t:
-                r.problem(_join(path, key), "given for an irregular sea; expected it only for "
+                r.problem(key_path(path, key), "given for an irregular sea; expected it only for "
                           "kind = 'regular'")
         if "gamma" in t and spectrum != "jonswap":
-            r.problem(_join(path, "gamma"), "given for the ittc spectrum; expected it only for "
+            r.problem(key_path(path, "gamma"), "given for the ittc spectrum; expected it only for "
                       "spectrum = 'jonswap'")
     if kind is None:
         return None
@@ -670,7 +422,7 @@ def _read_wave(r: _Reader, data: Any, path: str) -> WaveCondition | None:
                          gamma=3.3 if gamma is None else gamma, name=name or "", **q)
 
 
-def _read_runs(r: _Reader, data: Any) -> MatrixSpec | None:
+def _read_runs(r: FieldReader, data: Any) -> MatrixSpec | None:
     path = "runs"
     t = r.table(data, path, RUNS_KEYS)
     basis = r.choice(t, "speeds_as", path, SPEED_BASES, "prototype")
@@ -697,7 +449,7 @@ def _read_runs(r: _Reader, data: Any) -> MatrixSpec | None:
         if key not in t:
             continue
         items = []
-        tables = r.tables(t[key], _join(path, key))
+        tables = r.tables(t[key], key_path(path, key))
         for i, item in enumerate(tables):
             got = reader(r, item, f"{path}.{key}[{i}]")
             ok = ok and got is not None
@@ -718,7 +470,7 @@ def _read_runs(r: _Reader, data: Any) -> MatrixSpec | None:
         return None
 
 
-def _read_about(r: _Reader, data: Any) -> dict:
+def _read_about(r: FieldReader, data: Any) -> dict:
     t = r.table(data, "about", ABOUT_KEYS)
     return {k: v for k in ABOUT_KEYS if (v := r.text(t, k, "about")) is not None}
 
@@ -740,7 +492,7 @@ def parse_facility(mapping: Any, where: str = "") -> Facility:
     InputError
         With one line per problem.
     """
-    r = _Reader(where)
+    r = FieldReader(where, TOP_KEYS)
     fac = _read_facility_table(r, mapping)
     r.finish()
     return fac
@@ -767,9 +519,9 @@ def parse_case(mapping: Any, base_dir: str | Path = ".", name: str = "case") -> 
     InputError
         With every problem found, one line each: key path, value, what was expected.
     """
-    r = _Reader()
+    r = FieldReader(top_keys=TOP_KEYS)
     if not isinstance(mapping, Mapping):
-        raise InputError(f"case: {_show(mapping)} is not a table; expected a TOML document")
+        raise InputError(f"case: {show(mapping)} is not a table; expected a TOML document")
     doc = r.table(mapping, "", TOP_KEYS, required=("prototype", "facility"))
     about = _read_about(r, doc["about"]) if "about" in doc else {}
     proto = _read_prototype(r, doc["prototype"]) if "prototype" in doc else None
@@ -786,7 +538,7 @@ def parse_case(mapping: Any, base_dir: str | Path = ".", name: str = "case") -> 
             if isinstance(raw["file"], str):
                 facility = _facility_from_file(r, raw["file"], Path(base_dir))
             else:
-                r.problem("facility.file", f"{_show(raw['file'])} is not valid; expected "
+                r.problem("facility.file", f"{show(raw['file'])} is not valid; expected "
                           "a path such as 'facilities/tank.toml'")
         else:
             facility = _read_facility_table(r, raw)
@@ -799,7 +551,7 @@ def parse_case(mapping: Any, base_dir: str | Path = ".", name: str = "case") -> 
                 metadata=about, name=about.get("title", name))
 
 
-def _cross_checks(r: _Reader, proto: Prototype, facility: Facility,
+def _cross_checks(r: FieldReader, proto: Prototype, facility: Facility,
                   request: MatchRequest | None, matrix: MatrixSpec) -> None:
     """Problems that span tables."""
     if matrix.waves and not facility.kind == "wave_basin" and facility.kind != "towing_tank":
@@ -811,7 +563,7 @@ def _cross_checks(r: _Reader, proto: Prototype, facility: Facility,
                       "fluid of the facility; expected one of " + ", ".join(facility.fluids))
 
 
-def _facility_from_file(r: _Reader, rel: str, base_dir: Path) -> Facility | None:
+def _facility_from_file(r: FieldReader, rel: str, base_dir: Path) -> Facility | None:
     if not rel.strip():
         r.problem("facility", "empty path; expected a facility file such as "
                   "'facilities/tank.toml' or a [facility] table")
@@ -822,7 +574,7 @@ def _facility_from_file(r: _Reader, rel: str, base_dir: Path) -> Facility | None
     except InputError as exc:
         r.problems.extend(exc.problems)
         return None
-    sub = _Reader(where=f"facility file {_show_path(rel)}")
+    sub = FieldReader(where=f"facility file {_show_path(rel)}", top_keys=TOP_KEYS)
     fac = _read_facility_table(sub, doc, "facility")
     r.problems.extend(sub.problems)
     return fac

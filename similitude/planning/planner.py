@@ -238,7 +238,6 @@ class Plan:
         return "\n".join(lines)
 
     def _repr_html_(self) -> str:
-
         head = "<br>".join(html.escape(s.strip()) for s in self._headline())
         checks = checks_table(self.checks)[["check", "value", "limit", "unit", "status",
                                             "margin [-]", "source"]]

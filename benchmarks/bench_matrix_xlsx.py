@@ -93,7 +93,7 @@ def main(argv=None) -> int:
     t_write = statistics.median(write_times)
     t_base = statistics.median(base_times)
     print("== 10^4-run matrix to .xlsx (issue 5) ==")
-    print(f"  runs in matrix: {n}; import similitude etc. {t_import:.3f} s; "
+    print(f"  runs in matrix: {n}; imports (similitude, the writer, openpyxl) {t_import:.3f} s; "
           f"plan (incl. matrix) {t_plan:.3f} s; "
           f"build_matrix {statistics.median(matrix_times):.3f} s (median of {args.repeat})")
     print(f"  write_plan, median of {args.repeat}: {t_write:.3f} s ({size / 1e6:.1f} MB) "

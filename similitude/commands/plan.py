@@ -30,7 +30,6 @@ from similitude.planning.planner import Plan
 from similitude.planning.planner import plan as make_plan
 from similitude.readers.case_file import load_case
 from similitude.report.atomic import write_text_atomic
-from similitude.report.plan_workbook import write_plan
 from similitude.report.plots import plot_plan
 from similitude.units import format_scale
 
@@ -81,7 +80,7 @@ def run(args) -> int:
 
     written: list[Path] = []
     if args.output:
-        written.append(write_plan(plan, args.output, overwrite=args.force))
+        written.append(_write_workbook(plan, args.output, args.force))
     if csv_texts:
         written.extend(_write_csv(csv_texts, Path(args.csv).expanduser(), args.force))
     if args.plots:
@@ -113,6 +112,14 @@ def _have_matplotlib() -> bool:
     except ImportError:
         return False
     return True
+
+
+def _write_workbook(plan: Plan, path: str, force: bool) -> Path:
+    # The workbook writer loads openpyxl (a heavy library): imported only when -o asks for a
+    # workbook, so a run for the summary or --json stays quick.
+    from similitude.report.plan_workbook import write_plan
+
+    return write_plan(plan, path, overwrite=force)
 
 
 def _csv_texts(plan: Plan) -> dict[str, str]:

@@ -621,10 +621,10 @@ def _speed_table(ws, matrix):
     re_p = by["prototype Reynolds number [-]"].to_numpy(dtype=float)
     cols = [by["prototype speed [kn]"].to_numpy(float), by["model speed [m/s]"].to_numpy(float),
             re_m, re_p, _cf(re_m), _cf(re_p)]
-    for i in range(len(by)):
-        for j, (h, col) in enumerate(zip(headers, cols, strict=True), 1):
-            c = ws.cell(row=2 + i, column=j, value=cell_value(col[i]))
-            c.number_format = number_format(h, col)
+    for j, (h, col) in enumerate(zip(headers, cols, strict=True), 1):
+        fmt = number_format(h, col)
+        for i, v in enumerate(col):
+            ws.cell(row=2 + i, column=j, value=cell_value(v)).number_format = fmt
     return len(by), re_m, re_p
 
 

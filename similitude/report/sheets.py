@@ -12,6 +12,7 @@ openpyxl is imported at the top: only the workbook writers load this module, nev
 
 from __future__ import annotations
 
+import html
 import math
 import pathlib
 import re
@@ -19,7 +20,6 @@ import textwrap
 import zipfile
 from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field
-from xml.sax.saxutils import escape
 
 import numpy as np
 from openpyxl.chart import ScatterChart
@@ -56,8 +56,36 @@ def number_format(header: str, values=None) -> str:
     """Excel number format fitted to a column: by its quantity, then by its magnitude.
 
     Reynolds and Weber numbers and other wide-ranging values get scientific format, counts
-    integers, knots two decimals, angles one, otherwise about four significant digits.
+    integers, knots two decimals, angles one, otherwise about four significant digits (of the
+    median magnitude of the nonzero finite values).
     """
+    fmt = _quantity_format(header)
+    if fmt is not None:
+        return fmt
+    if values is None:
+        return "General"
+    arr = np.asarray(values)
+    if arr.dtype.kind in "iu":
+        return "0"
+    if arr.dtype.kind != "f":
+        return "General"
+    a = np.abs(arr[np.isfinite(arr) & (arr != 0)])
+    return _magnitude_format(float(np.median(a))) if a.size else "0.000"
+
+
+def value_format(header: str, value: float) -> str:
+    """:func:`number_format` of one number on its own (a column of mixed magnitudes)."""
+    fmt = _quantity_format(header)
+    if fmt is not None:
+        return fmt
+    if isinstance(value, (int, np.integer)):
+        return "0"
+    m = abs(float(value))
+    return _magnitude_format(m) if math.isfinite(m) and m != 0 else "0.000"
+
+
+def _quantity_format(header: str) -> str | None:
+    """The format a column header's quantity fixes, or None."""
     h = header.lower()
     if "reynolds" in h or "weber" in h or "c_f" in h or "[pa s]" in h or "[m^2/s]" in h:
         return "0.0000E+00"
@@ -69,26 +97,16 @@ def number_format(header: str, values=None) -> str:
         return "0.00"
     if "margin" in h:
         return "0.0%"
-    if values is None:
-        return "General"
-    arr = np.asarray(values)
-    if arr.dtype.kind in "iu":
-        return "0"
-    if arr.dtype.kind != "f":
-        return "General"
-    a = np.abs(arr[np.isfinite(arr) & (arr != 0)])
-    if a.size == 0:
-        return "0.000"
-    m = float(np.median(a))
+    return None
+
+
+def _magnitude_format(m: float) -> str:
+    """About four significant digits for a magnitude ``m`` > 0; scientific when very large or
+    small."""
     if m >= 1e6 or m < 1e-3:
         return "0.0000E+00"
     decimals = int(min(6, max(0, 3 - math.floor(math.log10(m)))))
     return "0" if decimals == 0 else "0." + "0" * decimals
-
-
-def value_format(header: str, value: float) -> str:
-    """The number format of one value on its own (a column of mixed magnitudes)."""
-    return number_format(header, np.array([value]))
 
 
 def _spread(values) -> float:
@@ -381,13 +399,18 @@ def _cell_xml(letter: str, kind: str, style: int, data, rows: range,
         return [f'<c r="{letter}{r}"{s} t="b"><v>{int(bool(v))}</v></c>'
                 for r, v in zip(rows, data, strict=True)]
     if kind == "formula":
-        return [f'<c r="{letter}{r}"{s}><f>{escape(data(r))}</f></c>' for r in rows]
+        return [f'<c r="{letter}{r}"{s}><f>{_escape(data(r))}</f></c>' for r in rows]
     # strings, inline (valid SpreadsheetML; no shared-string table needed)
     out = []
     for r, v in zip(rows, data, strict=True):
         if v is None or (isinstance(v, float) and not math.isfinite(v)) or v == "":
             out.append("")
         else:
-            out.append(f'<c r="{letter}{r}"{s} t="inlineStr"><is><t>{escape(str(v))}</t></is>'
+            out.append(f'<c r="{letter}{r}"{s} t="inlineStr"><is><t>{_escape(str(v))}</t></is>'
                        "</c>")
     return out
+
+
+def _escape(text: str) -> str:
+    """``&``, ``<`` and ``>`` as XML entities (quotes need none in element text)."""
+    return html.escape(text, quote=False)

@@ -64,3 +64,12 @@ def test_a_plan_run_imports_no_other_command_and_not_the_after_test_stage():
                          text=True, timeout=120)
     assert out.returncode == 0, out.stderr
     assert out.stderr.strip() == "['similitude.commands.common', 'similitude.commands.plan']"
+
+
+def test_a_plan_run_without_a_workbook_does_not_load_the_workbook_library():
+    case = Path(__file__).parents[2] / "demo_cases" / "ferry_resistance.toml"
+    code = ("import sys; from similitude.cli import main; main(['plan', sys.argv[1], '--json']); "
+            "print('openpyxl' in sys.modules, file=sys.stderr)")
+    out = subprocess.run([sys.executable, "-c", code, str(case)], capture_output=True,
+                         text=True, timeout=120)
+    assert out.returncode == 0 and out.stderr.strip() == "False", out.stderr

@@ -177,7 +177,7 @@ def property_table(fluid: str, states: dict[str, list[float]], extrapolate: bool
     table["temperature [degC]"] = np.broadcast_to(state.temperature_si, (n,)) - 273.15
     for key, value in state.as_dict().items():
         table[key] = np.broadcast_to(np.asarray(value, dtype=float), (n,))
-    extra = state.extra or {}
+    extra = state.extra
     if "salinity" in extra:
         table["salinity [g/kg]"] = np.broadcast_to(np.asarray(extra["salinity"]) * 1e3, (n,))
     if "relative_humidity" in extra:
@@ -196,8 +196,7 @@ def catalogue_table():
     """The fluids with kind, validity ranges and sources (a DataFrame)."""
     rows = []
     cli_names = {v: k for k, v in reversed(list(FLUIDS.items()))}
-    infos = list(fp.list_fluids())
-    for info in infos:
+    for info in fp.list_fluids():
         rows.append({
             "fluid": cli_names.get(info.name, info.name.replace("_", "-")),
             "kind": info.kind,
@@ -205,13 +204,9 @@ def catalogue_table():
             + ("; pressure 0.101325 MPa only" if info.fixed_pressure else ""),
             "description": info.description,
         })
-    if not any(info.name == "nitrogen" for info in infos):
-        rows.append({"fluid": "nitrogen", "kind": "gas", "validity": "see fluids_props.nitrogen",
-                     "description": "nitrogen test gas"})
     ranges = [v for v in vars(atmosphere).values() if isinstance(v, fp.Range)]
     rows.append({"fluid": "atmosphere", "kind": "gas",
-                 "validity": "; ".join(f"{r.quantity} {r.text()}" for r in ranges)
-                 or "see fluids_props.standard_atmosphere",
+                 "validity": "; ".join(f"{r.quantity} {r.text()}" for r in ranges),
                  "description": "ISO 2533 standard atmosphere (air by altitude)"})
     return pd.DataFrame(rows)
 

@@ -270,27 +270,24 @@ def _rows_of(ws, column: int, value):
     return [r for r in range(1, ws.max_row + 1) if ws.cell(row=r, column=column).value == value]
 
 
-def test_froude_number_cells_of_the_similarity_sheet_show_decimals(written):
-    _, wb = written
+def _value_formats_of_group(wb, group: str) -> list[str]:
+    """Number formats of the prototype and model values of ``group`` on the Similarity sheet."""
     ws = wb["Similarity"]
     heads = [c.value for c in ws[1]]
-    rows = _rows_of(ws, 1, "Froude number")
-    assert rows
-    for r in rows:
-        for name in ("prototype value", "model value"):
-            fmt = ws.cell(row=r, column=heads.index(name) + 1).number_format
-            assert fmt not in _INTEGER_FORMATS and re.fullmatch(r"0\.0{3,}", fmt), fmt
+    return [ws.cell(row=r, column=heads.index(name) + 1).number_format
+            for r in _rows_of(ws, 1, group) for name in ("prototype value", "model value")]
+
+
+def test_froude_number_cells_of_the_similarity_sheet_show_decimals(written):
+    formats = _value_formats_of_group(written[1], "Froude number")
+    assert formats
+    for fmt in formats:
+        assert fmt not in _INTEGER_FORMATS and re.fullmatch(r"0\.0{3,}", fmt), fmt
 
 
 def test_reynolds_number_cells_of_the_similarity_sheet_are_scientific(written):
-    _, wb = written
-    ws = wb["Similarity"]
-    heads = [c.value for c in ws[1]]
-    rows = _rows_of(ws, 1, "Reynolds number")
-    assert rows
-    for r in rows:
-        for name in ("prototype value", "model value"):
-            assert "E+" in ws.cell(row=r, column=heads.index(name) + 1).number_format
+    formats = _value_formats_of_group(written[1], "Reynolds number")
+    assert formats and all("E+" in fmt for fmt in formats)
 
 
 def test_matched_cells_are_booleans_shown_as_yes_or_no(written, plan):

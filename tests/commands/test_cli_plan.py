@@ -15,7 +15,8 @@ from pathlib import Path
 
 import pytest
 
-from similitude.cli import CAUTION, main
+from similitude.cli import main
+from similitude.commands.common import CAUTION
 
 DEMO = Path(__file__).parents[2] / "demo_cases"
 FERRY = str(DEMO / "ferry_resistance.toml")

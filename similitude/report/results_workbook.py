@@ -24,6 +24,7 @@ import numpy as np
 
 from similitude.constants import KNOT
 from similitude.report.atomic import write_atomic
+from similitude.report.sheets import scatter_chart
 
 CAUTIONS = (
     "These full-scale figures are ESTIMATES derived from model tests with published methods.",
@@ -76,19 +77,6 @@ def _write_pairs(ws, pairs, row: int = 1, title: str | None = None) -> int:
     return row + 1
 
 
-def _scatter(title: str, x_title: str, y_title: str):
-    from openpyxl.chart import ScatterChart
-
-    chart = ScatterChart()
-    chart.title = title
-    chart.style = 13
-    chart.x_axis.title = x_title
-    chart.y_axis.title = y_title
-    chart.height, chart.width = 9, 16
-    # openpyxl hides axes by default in recent versions; show them.
-    chart.x_axis.delete = False
-    chart.y_axis.delete = False
-    return chart
 
 
 def _add_series(chart, ws, x_col: int, y_col: int, first: int, last: int, title_row: int,
@@ -284,7 +272,7 @@ def _form_factor_sheet(ws, e) -> None:
     pro = e.prohaska_frame()
     first, last = _write_frame(ws, pro, row + 1)
     if e.form_factor_fit is not None:
-        ch = _scatter("Prohaska plot", pro.columns[2], "C_TM/C_FM [-]")
+        ch = scatter_chart("Prohaska plot", pro.columns[2], "C_TM/C_FM [-]")
         _add_series(ch, ws, 3, 4, first, last, first - 1, marker_only=True)
         _add_series(ch, ws, 3, 6, first, last, first - 1)
         ws.add_chart(ch, f"J{row + 1}")
@@ -334,7 +322,7 @@ def _open_water_sheet(ws, open_water) -> None:
     ], 1, "Propeller")
     ow = open_water.table.sort_values("advance ratio J [-]")
     ow_first, ow_last = _write_frame(ws, ow, row)
-    ch = _scatter("Open water: model (points) and ship (lines)", "J [-]", "K_T, 10 K_Q, eta_0")
+    ch = scatter_chart("Open water: model (points) and ship (lines)", "J [-]", "K_T, 10 K_Q, eta_0")
     ow10 = ow.assign(**{"10 K_Q model [-]": 10 * ow["K_Q model [-]"],
                         "10 K_Q ship [-]": 10 * ow["K_Q ship [-]"]})
     cols = ["advance ratio J [-]", "K_T model [-]", "10 K_Q model [-]", "eta_0 model [-]",
@@ -363,13 +351,13 @@ def _charts_sheet(ws, e) -> None:
         "P_E [kW]": a["pe"][order] / 1e3,
     })
     first, last = _write_frame(ws, chart_data, 1, 1)
-    ch = _scatter("Resistance coefficients against Froude number", "Froude number [-]",
+    ch = scatter_chart("Resistance coefficients against Froude number", "Froude number [-]",
                   "coefficient [-]")
     _add_series(ch, ws, 1, 2, first, last, 1, marker_only=True)
     for j in (3, 4, 5, 6):
         _add_series(ch, ws, 1, j, first, last, 1)
     ws.add_chart(ch, "J2")
-    ch = _scatter("Effective power against ship speed", "ship speed [kn]", "P_E [kW]")
+    ch = scatter_chart("Effective power against ship speed", "ship speed [kn]", "P_E [kW]")
     _add_series(ch, ws, 7, 8, first, last, 1)
     ws.add_chart(ch, "J22")
 

@@ -10,14 +10,13 @@ from collections.abc import Iterable
 from pathlib import Path
 from typing import Any
 
+from similitude.cautions import caution_line
 from similitude.errors import InputError
 from similitude.plain_data import plain, to_json
 
-#: Printed under every summary and the top-level help: the outputs are estimates.
-CAUTION = (
-    "Estimates only: check validity ranges, and defer to the ITTC recommended procedures, "
-    "class rules, local codes and licensed practice."
-)
+#: Printed under the top-level help: the outputs are estimates (each summary prints the caution
+#: worded for its own kind of test, :func:`similitude.cautions.caution_line`).
+CAUTION = caution_line()
 
 
 def workbook_path(text: str, option: str = "-o", example: str = "plan.xlsx") -> Path:

@@ -14,8 +14,8 @@ import sys
 from pathlib import Path
 from typing import Any
 
+from similitude.cautions import caution_line
 from similitude.commands.common import (
-    CAUTION,
     check_targets,
     folder_files,
     json_text,
@@ -163,7 +163,7 @@ def summary(plan: Plan) -> str:
     lines += _check_lines(plan.checks)
     lines.append(f"  runs            {len(plan.matrix)} runs, about "
                  f"{facility_time_hours(plan.matrix):.1f} h of facility time")
-    lines.append(CAUTION)
+    lines.append(caution_line(case.facility.kind))
     return "\n".join(lines)
 
 

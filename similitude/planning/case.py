@@ -40,6 +40,42 @@ MATCHABLE_GROUPS = (
 
 OBJECTIVES = ("largest_model", "least_mismatch", "smallest_model")
 
+#: Kinds of model test a case plans. A campaign of several tests names each test by one of these.
+TEST_KINDS = (
+    "resistance",        # calm-water towed resistance of a hull (ITTC 7.5-02-02-01)
+    "self_propulsion",   # propelled model at the ship self-propulsion point (ITTC 7.5-02-03-01.1)
+    "open_water",        # propeller alone in uniform inflow (ITTC 7.5-02-03-02.1)
+    "seakeeping",        # motions and loads in waves (ITTC 7.5-02-07-02.1)
+    "cavitation",        # propeller or body in a cavitation tunnel (ITTC 7.5-02-03-03.1)
+    "wind_tunnel",       # forces and pressures on a body in air
+)
+
+#: Facility kinds each test kind can be run in (common practice).
+TEST_FACILITIES = {
+    "resistance": ("towing_tank", "wave_basin"),
+    "self_propulsion": ("towing_tank", "wave_basin"),
+    "open_water": ("towing_tank", "cavitation_tunnel"),
+    "seakeeping": ("wave_basin", "towing_tank"),
+    "cavitation": ("cavitation_tunnel",),
+    "wind_tunnel": ("wind_tunnel",),
+}
+
+
+def default_test(prototype_kind: str, facility_kind: str) -> str:
+    """The test a case plans when it does not say: read from the prototype and the facility.
+
+    A wave basin plans a seakeeping test, a cavitation tunnel a cavitation test, a wind tunnel
+    a wind-tunnel test; a towing tank an open-water test of a propeller and a resistance test of
+    anything else.
+    """
+    if facility_kind == "wave_basin":
+        return "seakeeping"
+    if facility_kind == "cavitation_tunnel":
+        return "cavitation"
+    if facility_kind == "wind_tunnel":
+        return "wind_tunnel"
+    return "open_water" if prototype_kind == "propeller" else "resistance"
+
 #: How the speeds of a run matrix are given: prototype speeds, Froude numbers or model speeds.
 SPEED_BASES = ("prototype", "froude", "model")
 
@@ -424,6 +460,9 @@ class Case:
     metadata : dict
         Project, client, author, date ... (strings), shown in reports.
     name : str
+    test : str
+        The kind of test, one of :data:`TEST_KINDS`; "" (default) reads it from the prototype
+        and facility kinds (:func:`default_test`).
     """
 
     prototype: Prototype
@@ -432,3 +471,15 @@ class Case:
     matrix: MatrixSpec = field(default_factory=MatrixSpec)
     metadata: dict = field(default_factory=dict)
     name: str = "case"
+    test: str = ""
+
+    def __post_init__(self) -> None:
+        test = self.test or default_test(self.prototype.kind, self.facility.kind)
+        if test not in TEST_KINDS:
+            raise InputError(f"test: {test!r} is not a kind of test; expected one of "
+                             f"{', '.join(TEST_KINDS)}")
+        if self.facility.kind not in TEST_FACILITIES[test]:
+            raise InputError(f"test: a {test} test cannot be run in a "
+                             f"{self.facility.kind.replace('_', ' ')}; expected a facility of "
+                             f"kind {' or '.join(TEST_FACILITIES[test])}")
+        object.__setattr__(self, "test", test)  # frozen: resolve the default once, here

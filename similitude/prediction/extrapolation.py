@@ -48,6 +48,7 @@ import numpy as np
 
 from fluids_props.seawater import sea_water_si
 from fluids_props.water import fresh_water_si
+from similitude.cautions import PREDICTION_CAUTION
 from similitude.constants import AIR_DENSITY, G0, ITTC_TEMPERATURE, KNOT, P_ATM, STANDARD_SALINITY
 from similitude.correlations import blockage as _blockage
 from similitude.correlations import friction as _friction
@@ -61,11 +62,6 @@ METHODS = ("ittc1978", "froude")
 """``"ittc1978"``: form factor (1+k) on the friction; ``"froude"``: 1+k = 1 (Froude's method)."""
 
 
-CAUTION = (
-    "Full-scale predictions are estimates from the ITTC-1978 method as revised; they do not "
-    "replace the facility's own correlation practice, the current ITTC recommended procedures "
-    "or licensed professional practice."
-)
 
 
 def _positive(name: str, value: Any, allow_none: bool = False, allow_zero: bool = False):
@@ -740,7 +736,7 @@ def _results_frame(ids: list[str], a: dict[str, Any]):
 
 def _notes(options: ExtrapolationOptions, a: dict[str, Any]) -> tuple[str, ...]:
     """The method statement, the caution, and warnings on the fit and the model flow."""
-    notes = [options.revision_note, CAUTION]
+    notes = [options.revision_note, PREDICTION_CAUTION]
     if a["fit"] is not None and a["fit"].r_squared < 0.9:
         notes.append(f"Prohaska's fit has R^2 = {a['fit'].r_squared:.3f}: the form factor is "
                      "uncertain; check the low-speed runs or give k.")
@@ -757,7 +753,6 @@ def _notes(options: ExtrapolationOptions, a: dict[str, Any]) -> tuple[str, ...]:
 
 
 __all__ = [
-    "CAUTION",
     "METHODS",
     "Extrapolation",
     "ExtrapolationOptions",

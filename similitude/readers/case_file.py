@@ -43,6 +43,8 @@ from similitude.planning.case import (
     OBJECTIVES,
     PROTOTYPE_KINDS,
     SPEED_BASES,
+    TEST_FACILITIES,
+    TEST_KINDS,
     WAVE_KINDS,
     Case,
     FluidSpec,
@@ -122,7 +124,7 @@ RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_betw
 LOADING_KEYS = ("name", "draught", "trim", "displacement")
 WAVE_KEYS = ("name", "kind", "period", "length_ratio", "height", "steepness",
              "significant_height", "peak_period", "spectrum", "gamma", "duration")
-TOP_KEYS = ("about", "prototype", "facility", "matching", "runs")
+TOP_KEYS = ("about", "test", "prototype", "facility", "matching", "runs")
 
 #: Every key of a case file by table, for documentation and "did you mean" hints.
 CASE_KEYS: dict[str, tuple[str, ...]] = {
@@ -542,13 +544,17 @@ def parse_case(mapping: Any, base_dir: str | Path = ".", name: str = "case") -> 
                           "a path such as 'facilities/tank.toml'")
         else:
             facility = _read_facility_table(r, raw)
+    test = r.choice(doc, "test", "", TEST_KINDS, default="")
     request = _read_matching(r, doc["matching"]) if "matching" in doc else MatchRequest()
     matrix = _read_runs(r, doc["runs"]) if "runs" in doc else MatrixSpec()
     if matrix is not None and proto is not None and facility is not None:
         _cross_checks(r, proto, facility, request, matrix)
+    if test and facility is not None and facility.kind not in TEST_FACILITIES[test]:
+        r.problem("test", f"a {test} test cannot be run in a {facility.kind.replace('_', ' ')}"
+                  f"; expected a facility of kind {' or '.join(TEST_FACILITIES[test])}")
     r.finish()
     return Case(prototype=proto, facility=facility, request=request, matrix=matrix,
-                metadata=about, name=about.get("title", name))
+                metadata=about, name=about.get("title", name), test=test)
 
 
 def _cross_checks(r: FieldReader, proto: Prototype, facility: Facility,

@@ -36,6 +36,7 @@ from openpyxl.workbook.defined_name import DefinedName
 from openpyxl.workbook.properties import CalcProperties
 
 from fluids_props import FluidState, get_fluid
+from similitude.cautions import plan_caution
 from similitude.constants import KNOT
 from similitude.correlations.friction import friction_coefficient
 from similitude.planning.findings import checks_table
@@ -70,9 +71,6 @@ from similitude.units import format_scale
 SHEET_NAMES = ("Overview", "Similarity", "Facility checks", "Runs", "Scaling", "Fluids",
                "Test day", "Charts", "Basis")
 
-CAUTION = ("All figures are estimates for planning, valid only inside the stated validity "
-           "ranges of the correlations used; defer to the ITTC Recommended Procedures, class "
-           "rules, local codes and licensed practice.")
 
 #: Cells of the Test day sheet (fixed, so users and tests can find them).
 TEST_DAY_SHEET = "Test day"
@@ -186,7 +184,7 @@ def _sheet_overview(wb, plan: Plan) -> None:
     r = _overview_case_rows(ws, plan, 3)
     r = _overview_design_rows(ws, plan, r)
     set_widths(ws, {"A": 40, "B": 90})
-    _overview_cautions(ws, plan.notes, r + 1)
+    _overview_cautions(ws, plan_caution(plan.case.facility.kind), plan.notes, r + 1)
     ws.freeze_panes = "A2"
 
 
@@ -231,10 +229,10 @@ def _overview_design_rows(ws, plan: Plan, r: int) -> int:
     return r
 
 
-def _overview_cautions(ws, notes, r: int) -> None:
+def _overview_cautions(ws, caution: str, notes, r: int) -> None:
     """The caution and each planner note in a row of its own, as high as its wrapped text."""
     ws.cell(row=r, column=1, value="cautions").font = BOLD
-    texts = [CAUTION, *map(str, notes)]
+    texts = [caution, *map(str, notes)]
     for i, text in enumerate(texts):
         ws.cell(row=r + i, column=2, value=text)
     wrap_rows(ws, range(r, r + len(texts)), (2,))
@@ -691,7 +689,7 @@ def _sheet_basis(wb, plan: Plan) -> None:
 
 def _basis_rows(plan: Plan) -> list[tuple[str, str]]:
     """(topic, text): cautions, notes, assumptions, correlations, check sources, references."""
-    rows = [("caution", CAUTION)]
+    rows = [("caution", plan_caution(plan.case.facility.kind))]
     rows += [("planner note", str(n)) for n in plan.notes]
     rows += [("run matrix assumption", str(n)) for n in plan.matrix.attrs.get("notes", ())]
     for label, fs in (("prototype fluid", plan.prototype_fluid),

@@ -22,16 +22,10 @@ from typing import Any
 
 import numpy as np
 
+from similitude.cautions import PREDICTION_CAUTIONS
 from similitude.constants import KNOT
 from similitude.report.atomic import write_atomic
 from similitude.report.sheets import scatter_chart
-
-CAUTIONS = (
-    "These full-scale figures are ESTIMATES derived from model tests with published methods.",
-    "Defer to the test facility's own model-ship correlation practice, to the current ITTC "
-    "recommended procedures (7.5-02-03-01.4, 7.5-02-02-01) and to licensed professional practice.",
-    "The uncertainty sheet covers the measurement inputs only, not the errors of the method.",
-)
 
 _HEADER_FONT = {"bold": True}
 
@@ -186,7 +180,7 @@ def _readme_sheet(ws, e) -> None:
     if synthetic:
         pairs.append(("DATA", "SYNTHETIC: invented 'virtual tank' data, not a real test"))
     row = _write_pairs(ws, pairs, row, "Summary")
-    row = _write_pairs(ws, [(f"{i + 1}.", text) for i, text in enumerate(CAUTIONS)], row,
+    row = _write_pairs(ws, [(f"{i + 1}.", text) for i, text in enumerate(PREDICTION_CAUTIONS)], row,
                        "Cautions")
     _write_pairs(ws, [(f"note {i + 1}", n) for i, n in enumerate(e.notes)], row, "Notes")
 
@@ -385,4 +379,4 @@ def write_results(path, extrapolation, uncertainty=None, open_water=None,
     return write_atomic(path, lambda p: wb.save(p), overwrite)
 
 
-__all__ = ["CAUTIONS", "build_workbook", "write_results"]
+__all__ = ["build_workbook", "write_results"]

@@ -173,3 +173,32 @@ def test_bad_matrix_specification_is_a_one_line_input_error(kw, field):
         MatrixSpec(**kw)
     assert str(err.value).startswith(field)
     assert "\n" not in str(err.value)
+
+
+# -- the kind of test (common practice: which facility runs which test) -----------------------
+
+@pytest.mark.parametrize("proto_kind, facility_kind, expected", [
+    ("surface_ship", "towing_tank", "resistance"),
+    ("propeller", "towing_tank", "open_water"),
+    ("offshore_structure", "wave_basin", "seakeeping"),
+    ("propeller", "cavitation_tunnel", "cavitation"),
+    ("wing", "wind_tunnel", "wind_tunnel"),
+])
+def test_test_kind_is_read_from_prototype_and_facility_when_not_given(proto_kind, facility_kind,
+                                                                      expected):
+    case = Case(proto(kind=proto_kind), tank(kind=facility_kind))
+    assert case.test == expected
+
+
+def test_self_propulsion_test_in_a_towing_tank_is_kept():
+    assert Case(proto(), tank(), test="self_propulsion").test == "self_propulsion"
+
+
+def test_test_kind_the_facility_cannot_run_is_refused_naming_both():
+    with pytest.raises(InputError, match="test: a cavitation test cannot be run in a towing tank"):
+        Case(proto(), tank(), test="cavitation")
+
+
+def test_unknown_test_kind_is_refused_with_the_list():
+    with pytest.raises(InputError, match="test: 'towing' is not a kind of test"):
+        Case(proto(), tank(), test="towing")

@@ -448,3 +448,16 @@ def test_mass_fraction_for_a_pure_fluid_is_refused():
     with pytest.raises(InputError, match=r"prototype.fluid.mass_fraction: given, but "
                        "sea_water is not a mixture"):
         parse_case(m)
+
+
+def test_test_key_names_the_kind_of_test():
+    doc = metric_case()
+    doc["test"] = "self_propulsion"
+    assert parse_case(doc).test == "self_propulsion"
+
+
+def test_test_key_for_a_facility_that_cannot_run_it_is_one_named_problem():
+    doc = metric_case()
+    doc["test"] = "wind_tunnel"
+    assert problems_of(doc) == ["test: a wind_tunnel test cannot be run in a towing tank; "
+                                "expected a facility of kind wind_tunnel"]

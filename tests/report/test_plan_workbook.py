@@ -9,6 +9,7 @@ import openpyxl
 import pytest
 
 import similitude as sim
+from similitude.cautions import plan_caution
 from similitude.errors import InputError
 from similitude.planning.case import (
     Case,
@@ -329,7 +330,7 @@ def test_overview_gives_the_caution_and_each_note_its_own_wrapped_row_of_fitting
         written, plan):
     _, wb = written
     ws = wb["Overview"]
-    texts = [plan_workbook.CAUTION, *map(str, plan.notes)]
+    texts = [plan_caution(plan.case.facility.kind), *map(str, plan.notes)]
     assert len(texts) > 1
     rows = [_rows_of(ws, 2, t) for t in texts]
     assert all(len(r) == 1 for r in rows)
@@ -338,10 +339,10 @@ def test_overview_gives_the_caution_and_each_note_its_own_wrapped_row_of_fitting
         _assert_fits(ws, r, 2)
 
 
-def test_the_long_caution_on_the_overview_is_more_than_one_line_high(written):
+def test_the_long_caution_on_the_overview_is_more_than_one_line_high(written, plan):
     _, wb = written
     ws = wb["Overview"]
-    (r,) = _rows_of(ws, 2, plan_workbook.CAUTION)
+    (r,) = _rows_of(ws, 2, plan_caution(plan.case.facility.kind))
     assert ws.row_dimensions[r].height >= 2 * sheets.LINE_HEIGHT
 
 

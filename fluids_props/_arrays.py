@@ -87,7 +87,9 @@ def is_uniform(a: np.ndarray) -> bool:
 
 def horner(coeffs, x):
     """Horner evaluation of ``sum_n c_n x^n`` (coefficients in rising order)."""
-    out = np.zeros_like(x) + coeffs[-1]
-    for c in coeffs[-2::-1]:
-        out = out * x + c
-    return out
+    x = np.asarray(x, dtype=float)
+    out = np.full(x.shape, float(coeffs[-1]))
+    for c in coeffs[-2::-1]:  # in place: no temporary array per coefficient on large grids
+        out *= x
+        out += c
+    return out if out.ndim else out[()]

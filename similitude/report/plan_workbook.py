@@ -22,6 +22,7 @@ from __future__ import annotations
 
 import math
 import pathlib
+import re
 from dataclasses import dataclass
 
 import numpy as np
@@ -125,22 +126,54 @@ def build_workbook(plan: Plan) -> tuple[Workbook, list[LongTable]]:
     """
     wb = Workbook()
     wb.remove(wb.active)
-    _sheet_overview(wb, plan)
-    _sheet_similarity(wb, plan)
-    _sheet_checks(wb, plan)
-    tables = [_sheet_runs(wb, plan)]
-    _sheet_scaling(wb, plan)
-    _sheet_fluids(wb, plan)
-    tables += _sheet_test_day(wb, plan)
-    _sheet_charts(wb, plan)
-    _sheet_basis(wb, plan)
-    for ws in wb.worksheets:
-        print_setup(ws, PRINT_TITLE_ROWS.get(ws.title))
-    ref = f"'{TEST_DAY_SHEET}'!{absolute_coordinate(TEMPERATURE_CELL)}"
-    wb.defined_names["TestDayTemperature"] = DefinedName("TestDayTemperature", attr_text=ref)
+    tables = add_plan_sheets(wb, plan)
     # no cached values are stored: ask the application to calculate everything on load
     wb.calculation = CalcProperties(fullCalcOnLoad=True)
     return wb, tables
+
+
+def add_plan_sheets(wb: Workbook, plan: Plan, prefix: str = "") -> list[LongTable]:
+    """Build the sheets of a plan into ``wb``, after its existing sheets, each sheet name
+    starting with ``prefix`` (a campaign workbook holds several plans: "T1 Overview", ...).
+
+    The test-day temperature cell is named ``TestDayTemperature``, prefixed like the sheets
+    (letters, digits and underscores of ``prefix``: "T1_TestDayTemperature").
+
+    Returns
+    -------
+    list of LongTable
+        The long tables still to write (:func:`similitude.report.sheets.write_long_tables`,
+        after the workbook is saved).
+    """
+    view = _PrefixedWorkbook(wb, prefix)
+    first = len(wb.worksheets)
+    _sheet_overview(view, plan)
+    _sheet_similarity(view, plan)
+    _sheet_checks(view, plan)
+    tables = [_sheet_runs(view, plan)]
+    _sheet_scaling(view, plan)
+    _sheet_fluids(view, plan)
+    tables += _sheet_test_day(view, plan)
+    _sheet_charts(view, plan)
+    _sheet_basis(view, plan)
+    for ws in wb.worksheets[first:]:
+        print_setup(ws, PRINT_TITLE_ROWS.get(ws.title[len(prefix):]))
+    name = re.sub(r"\W", "_", prefix.strip()) + ("_" if prefix.strip() else "") + \
+        "TestDayTemperature"
+    ref = f"'{prefix}{TEST_DAY_SHEET}'!{absolute_coordinate(TEMPERATURE_CELL)}"
+    wb.defined_names[name] = DefinedName(name, attr_text=ref)
+    return tables
+
+
+class _PrefixedWorkbook:
+    """A workbook whose new sheets get a name prefix: the sheet builders only create sheets
+    through ``create_sheet``, so one plan's builders can fill a workbook holding others."""
+
+    def __init__(self, wb: Workbook, prefix: str) -> None:
+        self.wb, self.prefix = wb, prefix
+
+    def create_sheet(self, title: str):
+        return self.wb.create_sheet(self.prefix + title)
 
 
 def write_plan(plan: Plan, path, overwrite: bool = False) -> pathlib.Path:
@@ -538,7 +571,7 @@ def _property_table(wb, state: FluidState) -> _PropertyTable | None:
                       float_digits=16)
     ranges = {}
     for (_, _, key, _), (letter, *_) in zip(cols, rows.columns, strict=True):
-        ranges[key] = f"'{PROPERTY_TABLE_SHEET}'!${letter}$2:${letter}${len(grid) + 1}"
+        ranges[key] = f"'{ws.title}'!${letter}$2:${letter}${len(grid) + 1}"
         ws.column_dimensions[letter].width = 22
     p0 = float(np.asarray(state.pressure_si))
     ws.cell(row=1, column=len(cols) + 2, value=(

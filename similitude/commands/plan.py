@@ -24,8 +24,13 @@ from similitude.commands.common import (
 )
 from similitude.dimensional.groups import get as catalogued_group
 from similitude.errors import InputError
-from similitude.planning.findings import checks_table
-from similitude.planning.matrix import facility_time_hours
+from similitude.planning.findings import (
+    checks_summary,
+    checks_table,
+    format_margin,
+    needs_attention,
+)
+from similitude.planning.matrix import facility_time_hours, runs_text
 from similitude.planning.planner import Plan
 from similitude.planning.planner import plan as make_plan
 from similitude.readers.case_file import load_case
@@ -161,7 +166,7 @@ def summary(plan: Plan) -> str:
     if plan.binding_constraint:
         lines.append(f"  binding         {plan.binding_constraint}")
     lines += _check_lines(plan.checks)
-    lines.append(f"  runs            {len(plan.matrix)} runs, about "
+    lines.append(f"  runs            {runs_text(plan.matrix)}, about "
                  f"{facility_time_hours(plan.matrix):.1f} h of facility time")
     lines.append(caution_line(case.facility.kind))
     return "\n".join(lines)
@@ -223,10 +228,16 @@ def _group_lines(groups) -> list[str]:
 
 
 def _check_lines(checks) -> list[str]:
-    """The failed and warning checks, one line each, or that all passed."""
-    bad = [c for c in checks if c.status in ("fail", "warning")]
-    if not bad:
-        return [f"  checks          all {len(checks)} passed"]
-    return [f"  checks          {len(bad)} of {len(checks)} need attention:"] + [
-        f"    {c.status.upper():<8} {c.name}: {_fmt(c.value)} {c.unit} "
-        f"(limit {_fmt(c.limit)} {c.unit})".rstrip() for c in bad]
+    """The count of checks by status, then one line per check that needs attention (fail,
+    warning, not checked, at limit), worst first."""
+    lines = [f"  checks          {checks_summary(checks)}"]
+    for c in needs_attention(checks):
+        label = c.status.upper()
+        if c.status == "not checked":
+            lines.append(f"    {label:<11} {c.name}: {c.advice}")
+            continue
+        unit = f" {c.unit}" if c.unit else ""
+        margin = f", margin {format_margin(c.margin)}" if math.isfinite(c.margin) else ""
+        lines.append(f"    {label:<11} {c.name}: {_fmt(c.value)}{unit} (limit "
+                     f"{_fmt(c.limit)}{unit}{margin})")
+    return lines

@@ -46,7 +46,7 @@ from similitude.dimensional.numbers import (
 )
 from similitude.errors import InputError
 from similitude.planning.case import Case, FluidSpec
-from similitude.planning.limits import hard_limits
+from similitude.planning.limits import applies_to_search, hard_limits
 from similitude.planning.solution import Solution
 
 #: Exponent e of the model speed in each group at fixed scale and fluid state (G ~ V^e); a
@@ -377,6 +377,19 @@ class Problem:
 def _uses_pressure(case: Case) -> bool:
     keys = set(case.request.exact) | set(case.request.report)
     return "cavitation" in keys
+
+
+def pressure_set_by_facility(prob: Problem) -> bool:
+    """Whether the plan sets the facility's pressure: the facility has a pressure range and
+    the model fluid is a gas, the request uses the pressure (a cavitation number), or the
+    case fixes the model fluid's pressure (then checked against the range)."""
+    case = prob.case
+    if case.facility.pressure_range is None:
+        return False
+    spec = case.request.model_fluid
+    if spec is not None and spec.pressure is not None:
+        return True
+    return _uses_pressure(case) or any(o.info.kind == "gas" for o in prob.options)
 
 
 def scale_bounds(case: Case) -> tuple[float, float]:
@@ -712,8 +725,9 @@ def mismatch(prob: Problem, c: Candidates) -> np.ndarray:
 
 
 def violations(prob: Problem, c: Candidates):
-    """(names, matrix of relative violations (m, n), limits) of the facility's hard limits."""
-    lims = hard_limits(prob, c)
+    """(names, matrix of relative violations (m, n), limits) of the facility limits that bound
+    the search (:func:`similitude.planning.limits.applies_to_search`)."""
+    lims = [lim for lim in hard_limits(prob, c) if applies_to_search(lim, prob.case)]
     if not lims:
         return (), np.zeros((0, c.size)), ()
     mat = np.array([np.broadcast_to(lim.violation(), (c.size,)) for lim in lims])
@@ -756,6 +770,7 @@ __all__ = [
     "model_side",
     "model_state",
     "prototype_side",
+    "pressure_set_by_facility",
     "prototype_state",
     "residuals",
     "scale_bounds",

@@ -24,20 +24,34 @@ References
        (flat-plate transition band about 5e5 to 5e6).
 .. [4] Lamb, H., "Hydrodynamics", 6th ed., Cambridge, 1932, §267 (capillary-gravity waves:
        phase speed minimum at lambda_w = 2 pi sqrt(sigma/(rho g)), 1.71 cm for water).
+.. [5] Schuster, S., "Beitrag zur Frage der Kanalkorrektur bei Modellversuchen",
+       Schiffstechnik 3 (1955/56) 93-96; listed in ITTC 7.5-02-02-01 §3.6.3.
 """
 
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 
 from similitude.constants import G0
-from similitude.correlations import friction
+from similitude.correlations import blockage, friction
 from similitude.correlations.waves import wave_length
-from similitude.planning.candidates import Candidates, Problem, model_groups
-from similitude.planning.findings import Check
-from similitude.planning.limits import full_scale_waves, hard_limits, steady_run_length
+from similitude.planning.candidates import (
+    Candidates,
+    Problem,
+    model_groups,
+    pressure_set_by_facility,
+)
+from similitude.planning.findings import Check, judge
+from similitude.planning.limits import (
+    full_scale_waves,
+    hard_limits,
+    midship_area,
+    missing_limits,
+    steady_run_length,
+)
 
 #: Mach number below which compressibility is usually neglected [-]: at Ma = 0.3 the
 #: stagnation density rise is 4.6 % and the Prandtl-Glauert factor 1.048 (isentropic flow).
@@ -62,14 +76,12 @@ IMO_MIN_TUNNEL_MODEL_LENGTH = 1.25
 MIN_PROPELLER_REYNOLDS = 2.0e5
 
 
-def _status(ok: bool, soft: bool = True) -> str:
-    return "ok" if ok else ("warning" if soft else "fail")
-
-
 def _check(name, value, limit, unit, kind, source, advice="", soft=True) -> Check:
-    ok = value <= limit if kind == "max" else value >= limit
-    return Check(name, float(value), float(limit), unit, kind, _status(bool(ok), soft), source,
-                 "" if ok else advice)
+    """A check with its status by :func:`similitude.planning.findings.judge`; the advice is
+    kept only when the limit is exceeded."""
+    status = judge(float(value), float(limit), kind, soft)
+    return Check(name, float(value), float(limit), unit, kind, status, source,
+                 advice if status in ("warning", "fail") else "")
 
 
 def facility_checks(prob: Problem, c: Candidates) -> tuple[Check, ...]:
@@ -87,16 +99,54 @@ def facility_checks(prob: Problem, c: Candidates) -> tuple[Check, ...]:
     """
     scale = float(c.scale[0])
     return tuple([
-        *(lim.check(0) for lim in hard_limits(prob, c)),
+        *(_limit_check(prob, c, lim) for lim in hard_limits(prob, c)),
+        *(Check.not_checked(name, needs, source) for name, needs, source
+          in missing_limits(prob.case)),
         *_reynolds_checks(prob, c),
         *_fixed_temperature_checks(prob, c),
-        *_tunnel_pressure_checks(prob, c),
+        *_pressure_checks(prob, c),
         *_weather_criterion_checks(prob, c),
         *_own_wave_checks(prob, c),
         *_mach_checks(prob, c),
         *_steady_time_checks(prob, c),
         *wave_checks(prob.case, scale, c),
     ])
+
+
+def _limit_check(prob: Problem, c: Candidates, lim) -> Check:
+    """A limit at the chosen model as a check; a soft limit a fixed model exceeds carries the
+    correction to apply in its advice."""
+    check = lim.check(0)
+    if check.status != "warning":
+        return check
+    fix = _correction_advice(prob, c, check.name)
+    return replace(check, advice=fix) if fix else check
+
+
+def _correction_advice(prob: Problem, c: Candidates, name: str) -> str:
+    """The correction for a soft limit a fixed model exceeds, with its size where it has one:
+    Schuster's speed correction for tank blockage [5]_."""
+    case = prob.case
+    fac = case.facility
+    if name.startswith("blockage ratio"):
+        ax, _ = midship_area(case, float(c.scale[0]))
+        m = float(ax / fac.cross_section)
+        v = _model_speed(prob, c, prob.design)
+        fh = v / math.sqrt(G0 * fac.depth)
+        if m + fh**2 >= 1:
+            return ("the flow chokes between model and tank (m + Fh^2 >= 1): this model "
+                    "cannot be tested at this speed in this tank")
+        dv = float(blockage.tank_speed_correction(m, fh, method="schuster"))
+        return (f"existing model over the usual limit: correct the measured speed for "
+                f"blockage by Schuster's method, dV/V = {dv * 100:.3g} % at the highest speed "
+                f"(m = {m:.4g}, Fh = {fh:.3g}; ITTC 7.5-02-02-01 §3.6.3), and report the "
+                "correction with the results")
+    if name.startswith("tunnel blockage"):
+        return ("existing model over the usual limit: apply solid- and wake-blockage "
+                "corrections to the measured speed and coefficients (Barlow, Rae & Pope 1999; "
+                "Maskell 1963 for bluff bodies)")
+    return ("existing model over this rule of thumb: the planner reports it instead of "
+            "refusing; weigh the effect named in the check's source")
 
 
 def _model_length(prob: Problem, c: Candidates) -> float:
@@ -146,19 +196,27 @@ def _fixed_temperature_checks(prob: Problem, c: Candidates) -> list[Check]:
     ]
 
 
-def _tunnel_pressure_checks(prob: Problem, c: Candidates) -> list[Check]:
-    """Static pressure at the model of a liquid tunnel against the facility's range."""
+def _pressure_checks(prob: Problem, c: Candidates) -> list[Check]:
+    """The pressure the facility is set to against its range, wherever the plan sets one:
+    the static pressure at the model in a tunnel (pressurised or depressurised, liquid or
+    gas), the air pressure above the water in a depressurised tank or basin."""
     fac = prob.case.facility
-    if fac.pressure_range is None or c.state.vapour_pressure_si is None or fac.free_surface:
+    if fac.pressure_range is None or not pressure_set_by_facility(prob):
         return []
-    p_ref = float(np.ravel(c.reference_pressure)[0])
+    p = float(np.ravel(c.pressure)[0])
     lo_p, hi_p = fac.pressure_range
-    advice = "the tunnel cannot reach this pressure"
+    if fac.free_surface:
+        what = "air pressure above the water"
+    elif fac.kind == "wind_tunnel":
+        what = "test-section static pressure"
+    else:
+        what = "tunnel static pressure at the model"
+    advice = "the facility cannot reach this pressure"
     return [
-        _check("tunnel static pressure at the model vs facility minimum", p_ref, lo_p, "Pa",
-               "min", "facility data", advice, soft=False),
-        _check("tunnel static pressure at the model vs facility maximum", p_ref, hi_p, "Pa",
-               "max", "facility data", advice, soft=False),
+        _check(f"{what} vs facility minimum", p, lo_p, "Pa", "min", "facility data", advice,
+               soft=False),
+        _check(f"{what} vs facility maximum", p, hi_p, "Pa", "max", "facility data", advice,
+               soft=False),
     ]
 
 

@@ -42,7 +42,7 @@ import numpy as np
 from similitude.constants import G0
 from similitude.correlations.waves import wave_length, wave_period
 from similitude.planning.case import dimension_power
-from similitude.planning.findings import Check
+from similitude.planning.findings import Check, judge
 
 #: Kelvin wedge half-angle arcsin(1/3) [rad] [1].
 KELVIN_HALF_ANGLE = math.asin(1.0 / 3.0)
@@ -94,6 +94,13 @@ class Limit:
     limit_words : str
         The limit in words for messages, e.g. "carriage maximum".
     advice : str
+    soft : bool
+        A limit a correction or a rule of thumb covers (blockage, wall reflections, the
+        deep-water criteria, wall effects in a tunnel): it bounds the search while the scale
+        is free, but a model whose scale is fixed (an existing model, a chosen scale) that
+        exceeds it gets a warning with the correction to apply instead of a refusal
+        (:func:`applies_to_search`). A hard limit (speeds, sizes, rotation rate, wavemaker)
+        always refuses.
     """
 
     name: str
@@ -104,6 +111,7 @@ class Limit:
     source: str
     limit_words: str
     advice: str = ""
+    soft: bool = False
 
     def violation(self):
         """Relative violation: positive when the limit is exceeded, negative inside."""
@@ -125,13 +133,26 @@ class Limit:
                 f"{lim:.4g}{unit} by {abs(excess) * 100:.3g} %")
 
     def check(self, j: int = 0) -> Check:
-        """The limit at candidate ``j`` as a :class:`Check`."""
+        """The limit at candidate ``j`` as a :class:`Check` (status by
+        :func:`similitude.planning.findings.judge`: a violated soft limit warns, a hard one
+        fails; within 2 % of the limit it is "at limit")."""
         v = float(np.ravel(self.value)[j])
         lim = float(np.ravel(np.broadcast_to(self.limit, np.shape(self.value)))[j]) \
             if np.ndim(self.limit) else float(self.limit)
-        bad = float(np.ravel(self.violation())[j]) > 1e-9
-        return Check(self.name, v, lim, self.unit, self.kind, "fail" if bad else "ok",
-                     self.source, self.advice if bad else "")
+        status = judge(v, lim, self.kind, soft=self.soft)
+        return Check(self.name, v, lim, self.unit, self.kind, status, self.source,
+                     self.advice if status in ("warning", "fail") else "")
+
+
+def scale_is_fixed(case) -> bool:
+    """True when the case fixes the scale (``match.scale``) or the model (``model_length``)."""
+    return case.request.scale is not None or case.request.model_length is not None
+
+
+def applies_to_search(lim: Limit, case) -> bool:
+    """Whether a limit bounds the solver's search: every hard limit, and the soft ones only
+    while the scale is free (a fixed model over a soft limit is warned about, not refused)."""
+    return not (lim.soft and scale_is_fixed(case))
 
 
 def _dim(case, key, scale):
@@ -169,8 +190,12 @@ def hard_limits(prob, c) -> list[Limit]:
     v_lo = vp[prob.lowest] * c.velocity_ratio
     out: list[Limit] = []
     word = _speed_words(fac)
-    label = f"{prob.speed_group} speed" if prob.speed_group else "model speed"
-    label = label[0].upper() + label[1:]
+    if prob.speed_group == "froude":
+        label = "Froude speed"
+    elif prob.speed_group:
+        label = f"Model speed (set by the {prob.speed_group.replace('_', ' ')} number)"
+    else:
+        label = "Model speed"
     out.append(Limit(f"{label} at the highest prototype speed", v_hi, fac.speed_range[1],
                      "max", "m/s", "facility data", f"{word} maximum",
                      "use a smaller model or a faster facility"))
@@ -190,7 +215,10 @@ def hard_limits(prob, c) -> list[Limit]:
                          "facility data", "dynamometer maximum",
                          "use a smaller propeller model or a lower speed"))
     if fac.free_surface:
-        out.extend(_free_surface_limits(prob, c, lam, lm, v_hi))
+        if proto.kind != "propeller":
+            # A propeller on an open-water boat: the tank-wall and deep-water criteria of a
+            # hull do not apply to it.
+            out.extend(_free_surface_limits(prob, c, lam, lm, v_hi))
         out.extend(wavemaker_limits(case, lam))
     else:
         out.extend(_tunnel_limits(prob, c, lam, lm))
@@ -226,6 +254,10 @@ def midship_area(case, scale):
     return None, ""
 
 
+#: Prototype kinds with a hull: tank blockage on the midship area, friction lines, loading.
+HULL_KINDS = ("surface_ship", "submerged_body", "offshore_structure")
+
+
 def _free_surface_limits(prob, c, lam, lm, v_hi) -> list[Limit]:
     case = prob.case
     fac, proto = case.facility, case.prototype
@@ -234,14 +266,14 @@ def _free_surface_limits(prob, c, lam, lm, v_hi) -> list[Limit]:
                  "Kelvin wedge 19.47 deg (Kelvin 1887): bow waves reach the tank walls within "
                  "one model length when B_T < 2 L tan 19.47 deg = 0.71 L (derived)",
                  "Kelvin-wedge length B_T/0.71",
-                 "use a smaller model so that wall reflections pass astern of it")]
+                 "use a smaller model so that wall reflections pass astern of it", soft=True)]
     ax, how = midship_area(case, lam)
-    if ax is not None and proto.kind in ("surface_ship", "submerged_body", "offshore_structure"):
+    if ax is not None and proto.kind in HULL_KINDS:
         m = ax / fac.cross_section
         out.append(Limit("blockage ratio A_X/(B_T h)", m, TANK_BLOCKAGE_LIMIT, "max", "",
                          "common practice (A_X " + how + ")", "usual uncorrected limit",
                          "use a smaller model, or correct for blockage (Schuster; ITTC "
-                         "7.5-02-02-01 §3.6.3)"))
+                         "7.5-02-02-01 §3.6.3)", soft=True))
     if proto.water_depth is None and "depth_froude" not in case.request.exact:
         fh = v_hi / math.sqrt(G0 * fac.depth)
         out.append(Limit("depth Froude number V_m/sqrt(g h)", fh, DEEP_WATER_DEPTH_FROUDE,
@@ -249,15 +281,38 @@ def _free_surface_limits(prob, c, lam, lm, v_hi) -> list[Limit]:
                          "ITTC 7.5-04-01-01.1 (2017) / ISO 15016:2015 deep-water criterion "
                          "h > 2.75 V^2/g (from memory)", "deep-water limit",
                          "use a smaller model: the tank bottom would raise resistance and "
-                         "sinkage"))
+                         "sinkage", soft=True))
         b, t = _dim(case, "beam", lam), _dim(case, "draught", lam)
         if b is not None and t is not None:
             need = DEEP_WATER_DRAUGHT_FACTOR * np.sqrt(b * t)
             out.append(Limit("tank depth needed 3 sqrt(B_m T_m)", need, fac.depth, "max", "m",
                              "ITTC 7.5-04-01-01.1 (2017) / ISO 15016:2015 deep-water "
                              "criterion h > 3 sqrt(B T) (from memory)", "tank depth",
-                             "use a smaller model"))
+                             "use a smaller model", soft=True))
     return out
+
+
+def tunnel_blockage_area(case, scale):
+    """Model area for the tunnel blockage ratio [m^2] and how it was found, or (None, "").
+
+    Ship-like models in a wind tunnel use the lateral area when given (IMO weather-criterion
+    tests); otherwise the frontal area; a wing without a frontal area uses span x thickness,
+    and a wing with a thickness but no span is taken as a 2-D section spanning the test
+    section (frontal area thickness x test-section width).
+    """
+    proto, fac = case.prototype, case.facility
+    if proto.kind in ("surface_ship", "offshore_structure") and proto.dimension("lateral_area"):
+        return _dim(case, "lateral_area", scale), "lateral area"
+    area = _dim(case, "frontal_area", scale)
+    if area is not None:
+        return area, "frontal area"
+    t, span = _dim(case, "thickness", scale), _dim(case, "span", scale)
+    if proto.kind == "wing" and t is not None:
+        if span is not None:
+            return t * span, "frontal area estimated as span x thickness"
+        return t * fac.width, ("2-D section spanning the test section: frontal area "
+                               "thickness x test-section width")
+    return None, ""
 
 
 def _tunnel_limits(prob, c, lam, lm) -> list[Limit]:
@@ -272,27 +327,62 @@ def _tunnel_limits(prob, c, lam, lm) -> list[Limit]:
                          PROPELLER_TUNNEL_DIAMETER_RATIO * min(fac.width, fac.depth), "max", "m",
                          "common practice (from memory)",
                          f"{PROPELLER_TUNNEL_DIAMETER_RATIO:g} x smaller test-section side",
-                         "use a smaller propeller model"))
+                         "use a smaller propeller model", soft=True))
         return out
     ship_like = proto.kind in ("surface_ship", "offshore_structure")
-    area_key = "lateral_area" if ship_like and proto.dimension("lateral_area") else \
-        "frontal_area"
-    area = _dim(case, area_key, lam)
-    if area is not None and fac.kind == "wind_tunnel":
-        if ship_like:
+    area, how = tunnel_blockage_area(case, lam)
+    if area is not None:
+        if ship_like and fac.kind == "wind_tunnel":
             lim, src = IMO_TUNNEL_BLOCKAGE, "IMO MSC.1/Circ.1200 (2006) §3.2.1"
         else:
             lim, src = BARLOW_TUNNEL_BLOCKAGE, "Barlow, Rae & Pope (1999), from memory"
-        out.append(Limit(f"tunnel blockage {area_key.replace('_', ' ')}/test section", area /
-                         fac.cross_section, lim, "max", "", src, "blockage limit",
-                         "use a smaller model"))
+        out.append(Limit(f"tunnel blockage ({how})/test section", area / fac.cross_section,
+                         lim, "max", "", src, "blockage limit",
+                         "use a smaller model, or correct for blockage (solid and wake "
+                         "blockage)", soft=True))
     span = _dim(case, "span", lam)
     if span is not None:
         out.append(Limit("span over test-section width", span / fac.width, BARLOW_SPAN_RATIO,
                          "max", "", "Barlow, Rae & Pope (1999), from memory",
-                         "span limit", "use a smaller model"))
+                         "span limit", "use a smaller model", soft=True))
     return out
 
+
+def missing_limits(case) -> list[tuple[str, str, str]]:
+    """The limits of :func:`hard_limits` that apply to the case but lack an input: (name,
+    input that would enable it, source), for the plan's "not checked" rows."""
+    fac, proto, spec = case.facility, case.prototype, case.matrix
+    has = proto.dimensions.__contains__
+    out = []
+    if fac.free_surface and proto.kind in HULL_KINDS and not (
+            has("midship_area") or (has("beam") and has("draught"))):
+        out.append(("blockage ratio A_X/(B_T h)", "give prototype.sizes.midship_area, or "
+                    "beam and draught", "common practice"))
+    if fac.free_surface and proto.kind in HULL_KINDS and proto.water_depth is None \
+            and not (has("beam") and has("draught")):
+        out.append(("tank depth needed 3 sqrt(B_m T_m)", "give prototype.sizes.beam and "
+                    "draught", "ITTC 7.5-04-01-01.1 (2017) / ISO 15016:2015"))
+    if not fac.free_surface and proto.kind != "propeller" and \
+            tunnel_blockage_area(case, 1.0)[0] is None:
+        needs = "give prototype.sizes.frontal_area" + (
+            " (or lateral_area)" if proto.kind in ("surface_ship", "offshore_structure") else
+            ", or span and thickness (thickness alone for a 2-D section spanning the test "
+            "section)" if proto.kind == "wing" else "")
+        out.append(("tunnel blockage/test section", needs, "facility data"))
+    if proto.rotation_rates and fac.max_rotation_rate is None:
+        out.append(("model rotation rate", "give facility.fastest_rotation (the dynamometer's "
+                    "maximum rotation rate)", "facility data"))
+    if fac.free_surface and spec.waves:
+        if fac.wavemaker_period_range is None:
+            out.append(("model wave periods vs wavemaker range", "give facility.wave_periods "
+                        "(the wavemaker's shortest and longest period)", "facility data"))
+        if fac.wavemaker_max_height is None:
+            out.append(("model wave heights vs wavemaker's highest wave", "give "
+                        "facility.highest_wave", "facility data"))
+    if fac.free_surface and fac.acceleration is None:
+        out.append(("steady-run time at the highest speed", "give facility.acceleration (and "
+                    "braking)", "common practice"))
+    return out
 
 
 def full_scale_waves(case):
@@ -361,8 +451,13 @@ __all__ = [
     "PROPELLER_TUNNEL_DIAMETER_RATIO",
     "TANK_BLOCKAGE_LIMIT",
     "Limit",
+    "HULL_KINDS",
+    "applies_to_search",
     "full_scale_waves",
     "hard_limits",
+    "missing_limits",
+    "scale_is_fixed",
+    "tunnel_blockage_area",
     "midship_area",
     "steady_run_length",
     "wavemaker_limits",

@@ -354,6 +354,26 @@ def _waiting_time(case: Case, has_waves: bool, notes: list[str]) -> float:
     return wait
 
 
+def runs_needed(matrix) -> int:
+    """Runs the facility makes for a run matrix [-]: the sum of its "runs needed" column (an
+    irregular sea longer than one run takes several), or one per row.
+
+    A matrix row is a test condition; this is the count to book, which the summary and the
+    Overview give beside the number of rows.
+    """
+    if "runs needed [-]" in matrix:
+        return int(matrix["runs needed [-]"].sum())
+    return len(matrix)
+
+
+def runs_text(matrix) -> str:
+    """The run counts in words: "42 runs (one per condition)" or "12 conditions, 110 runs"."""
+    rows, runs = len(matrix), runs_needed(matrix)
+    if rows == runs:
+        return f"{runs} runs (one per condition)"
+    return f"{rows} conditions (run-matrix rows), {runs} runs needed"
+
+
 def facility_time_hours(matrix) -> float:
     """Total facility time [h] of a run matrix: runs x (run, acceleration, braking, waiting).
 

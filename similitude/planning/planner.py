@@ -45,8 +45,15 @@ from similitude.planning.candidates import (
 from similitude.planning.case import MATCHABLE_GROUPS, Case, dimension_power
 from similitude.planning.checks import facility_checks
 from similitude.planning.conflicts import blockage_notes, find_conflicts
-from similitude.planning.findings import Check, Conflict, checks_table
-from similitude.planning.matrix import build_matrix
+from similitude.planning.findings import (
+    Check,
+    Conflict,
+    checks_html,
+    checks_summary,
+    needs_attention,
+    status_counts,
+)
+from similitude.planning.matrix import build_matrix, runs_needed, runs_text
 from similitude.planning.solution import Solution
 from similitude.planning.solver import DEFAULT_CANDIDATES, solve
 from similitude.units import format_scale
@@ -87,8 +94,10 @@ class Plan:
         The groups the model does not match, at the design (highest) speed, each with its
         prototype and model values, ratio and consequence in the trade's terms.
     checks : tuple of Check
-        Facility and regime checks of the chosen model: value, limit, status ("ok",
-        "warning", "fail"), margin and source (``checks_table`` gives them as a DataFrame).
+        Facility and regime checks of the chosen model: value, limit, status (one of
+        :data:`similitude.planning.findings.STATUSES`: "ok", "at limit", "warning", "fail",
+        "not checked" with the input that would enable it, "info"), margin and source
+        (``findings.checks_table`` gives them as a DataFrame).
     scale_factors : pandas.DataFrame
         Factor prototype/model of the usual quantities (force, power, time, ...):
         ``quantity``, ``dimension``, ``factor (prototype/model)``, ``expression``, ``unit``,
@@ -189,8 +198,12 @@ class Plan:
             "groups": frame(self.groups),
             "conflicts": [conflict(c) for c in self.conflicts],
             "checks": [check(c) for c in self.checks],
+            "checks_summary": checks_summary(self.checks),
+            "check_status_counts": status_counts(self.checks),
             "scale_factors": frame(self.scale_factors),
             "matrix": frame(self.matrix),
+            "conditions": len(self.matrix),
+            "runs_needed": runs_needed(self.matrix),
             "notes": list(self.notes),
         }
 
@@ -227,29 +240,27 @@ class Plan:
             lines.append("  not matched:")
             for cf in self.conflicts:
                 lines.append(f"    {cf.group}: prototype/model = {cf.ratio:.4g}")
-        n = {s: sum(1 for ch in self.checks if ch.status == s) for s in
-             ("ok", "warning", "fail")}
-        lines.append(f"  checks: {n['ok']} ok, {n['warning']} warning, {n['fail']} fail")
-        for ch in self.checks:
-            if ch.status in ("warning", "fail"):
+        lines.append(f"  checks: {checks_summary(self.checks)}")
+        for ch in needs_attention(self.checks):
+            if ch.status == "not checked":
+                lines.append(f"    not checked: {ch.name} ({ch.advice})")
+            else:
                 lines.append(f"    {ch.status}: {ch.name} {_fmt(ch.value)} "
                              f"(limit {_fmt(ch.limit)} {ch.unit})".rstrip())
-        lines.append(f"  runs: {len(self.matrix) if self.matrix is not None else 0}")
+        lines.append(f"  runs: {runs_text(self.matrix)}")
         return "\n".join(lines)
 
     def _repr_html_(self) -> str:
         head = "<br>".join(html.escape(s.strip()) for s in self._headline())
-        checks = checks_table(self.checks)[["check", "value", "limit", "unit", "status",
-                                            "margin [-]", "source"]]
-        checks = checks.rename(columns={"margin [-]": "margin"})
         conf = "".join(f"<li><b>{html.escape(c.group)}</b>: {html.escape(c.consequence)}</li>"
                        for c in self.conflicts)
         notes = "".join(f"<li>{html.escape(n)}</li>" for n in self.notes)
         return (
             f"<div><p>{head}</p><h4>Speeds</h4>{self.speeds.to_html(index=False)}"
             f"<h4>Groups (design speed)</h4>{self._design_groups().to_html(index=False)}"
-            f"<h4>Conflicts</h4><ul>{conf}</ul><h4>Checks</h4>"
-            f"{checks.to_html(index=False)}<h4>Notes</h4><ul>{notes}</ul></div>"
+            f"<h4>Conflicts</h4><ul>{conf}</ul>"
+            f"<h4>Checks: {html.escape(checks_summary(self.checks))}</h4>"
+            f"{checks_html(self.checks)}<h4>Notes</h4><ul>{notes}</ul></div>"
         )
 
     def _design_groups(self):

@@ -40,8 +40,13 @@ from fluids_props import FluidState, get_fluid
 from similitude.cautions import plan_caution
 from similitude.constants import KNOT
 from similitude.correlations.friction import friction_coefficient
-from similitude.planning.findings import checks_table
-from similitude.planning.matrix import facility_time_hours
+from similitude.planning.findings import (
+    STATUS_COLOURS,
+    STATUS_MEANINGS,
+    checks_summary,
+    checks_table,
+)
+from similitude.planning.matrix import facility_time_hours, runs_needed
 from similitude.planning.planner import Plan
 from similitude.report import formulas
 from similitude.report.atomic import check_target, write_atomic
@@ -105,10 +110,10 @@ TEST_DAY_PROPERTY_CELLS = {
     LENGTH_CELL: ("model length [m]", "0.000"),
 }
 
-#: Fill of the status cell of a facility check.
-STATUS_FILLS = {status: PatternFill("solid", fgColor=colour) for status, colour in
-                (("ok", "C6EFCE"), ("warning", "FFEB9C"), ("fail", "FFC7CE"),
-                 ("info", "DDEBF7"))}
+#: Fill of the status cell of a facility check: the one colour per status of
+#: :data:`similitude.planning.findings.STATUS_COLOURS` (the notebook view uses the same).
+STATUS_FILLS = {status: PatternFill("solid", fgColor=colour)
+                for status, colour in STATUS_COLOURS.items()}
 #: Header row repeated on every printed page, by sheet (the Overview has none).
 PRINT_TITLE_ROWS = {"Similarity": 1, "Facility checks": 1, "Runs": 1, "Scaling": 1,
                     "Fluids": 1, "Test day": TEST_DAY_HEADER_ROW, "Charts": 1, "Basis": 1,
@@ -242,7 +247,10 @@ def _overview_case_rows(ws, plan: Plan, r: int) -> int:
     r = label_row(ws, r, "binding constraint", plan.binding_constraint)
     exact = plan.solution.exact or case.request.exact
     r = label_row(ws, r, "groups matched exactly", ", ".join(exact))
-    r = label_row(ws, r, "runs [-]", len(plan.matrix), "0")
+    r = label_row(ws, r, "facility checks", checks_summary(plan.checks)
+                  + " (see the Facility checks sheet)")
+    r = label_row(ws, r, "test conditions (rows of the Runs sheet) [-]", len(plan.matrix), "0")
+    r = label_row(ws, r, "runs needed [-]", runs_needed(plan.matrix), "0")
     return label_row(ws, r, "facility time [h]", facility_time_hours(plan.matrix), "0.0")
 
 
@@ -345,6 +353,16 @@ def _sheet_checks(wb, plan: Plan) -> None:
     fit_row_height(ws, 1)
     ws.cell(row=last + 2, column=1, value="margin = (limit - value)/|limit| for a maximum, "
             "(value - limit)/|limit| for a minimum; negative when violated")
+    _status_legend(ws, last + 4)
+
+
+def _status_legend(ws, r: int) -> None:
+    """Each status in its colour with what it means, from row ``r`` down."""
+    ws.cell(row=r, column=1, value="status").font = BOLD
+    ws.cell(row=r, column=2, value="meaning").font = BOLD
+    for i, (status, meaning) in enumerate(STATUS_MEANINGS.items(), start=1):
+        ws.cell(row=r + i, column=1, value=status).fill = STATUS_FILLS[status]
+        ws.cell(row=r + i, column=2, value=meaning)
 
 
 def _sheet_runs(wb, plan: Plan) -> LongTable:

@@ -42,7 +42,7 @@ def test_wind_tunnel_ship_model_uses_the_imo_5_percent_blockage_limit():
     prob = candidates.build_problem(case)
     sol = solver.solve(case)
     lims = {lim.name: lim for lim in limits.hard_limits(prob, candidates.candidate_at(prob, sol))}
-    lim = lims["tunnel blockage lateral area/test section"]
+    lim = lims["tunnel blockage (lateral area)/test section"]
     assert lim.limit == limits.IMO_TUNNEL_BLOCKAGE
     assert float(lim.value[0]) == pytest.approx(4000.0 / 100.0**2 / 12.0, rel=1e-12)
 

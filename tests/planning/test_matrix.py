@@ -4,6 +4,7 @@ time."""
 import math
 
 import numpy as np
+import pandas as pd
 import pytest
 
 import fluids_props as fp
@@ -16,7 +17,7 @@ from similitude.planning.case import (
     WaveCondition,
 )
 from similitude.planning.facilities import Facility
-from similitude.planning.matrix import build_matrix, facility_time_hours
+from similitude.planning.matrix import build_matrix, facility_time_hours, runs_needed, runs_text
 from similitude.planning.solution import Solution
 
 G = 9.80665
@@ -254,3 +255,13 @@ def test_current_is_scaled_to_the_model_like_a_speed():
     np.testing.assert_allclose(m["prototype current [m/s]"], 0.5)
     np.testing.assert_allclose(m["model current [m/s]"], 0.5 / math.sqrt(LAM), rtol=1e-12)
     assert "model current [m/s]" not in build_matrix(_case(), _solution()).columns
+
+
+def test_run_count_gives_conditions_and_runs_needed_apart():
+    # An irregular sea of 3 h full scale at 1:30 lasts 10800/sqrt(30) = 1971.8 s in the model;
+    # each row that cannot hold it in one run needs several: the runs to book are the sum of
+    # the "runs needed" column, not the number of rows.
+    m = pd.DataFrame({"runs needed [-]": [1, 3, 5]})
+    assert runs_needed(m) == 9
+    assert runs_text(m) == "3 conditions (run-matrix rows), 9 runs needed"
+    assert runs_text(pd.DataFrame({"runs needed [-]": [1, 1]})) == "2 runs (one per condition)"

@@ -64,7 +64,8 @@ def test_overview_states_scale_binding_constraint_and_cautions(written, plan):
               for r in range(1, ws.max_row + 1)}
     assert values["scale"] == "1:25"
     assert values["binding constraint"] == plan.binding_constraint
-    assert values["runs [-]"] == len(plan.matrix)
+    assert values["test conditions (rows of the Runs sheet) [-]"] == len(plan.matrix)
+    assert values["runs needed [-]"] == plan.matrix["runs needed [-]"].sum()
     caution = values["cautions"]
     for words in ("estimates", "validity ranges", "ITTC", "class rules", "local codes",
                   "licensed practice"):
@@ -414,5 +415,5 @@ def test_points_only_chart_series_have_filled_markers(written):
 def test_overview_numbers_stand_next_to_their_labels(written):
     _, wb = written
     ws = wb["Overview"]
-    (r,) = _rows_of(ws, 1, "runs [-]")
+    (r,) = _rows_of(ws, 1, "runs needed [-]")
     assert ws.cell(row=r, column=2).alignment.horizontal == "left"

@@ -158,6 +158,7 @@ def summary(plan: Plan) -> str:
     """The terminal summary of a plan: a few lines for a person."""
     case = plan.case
     lines = [f"{case.name}: {case.prototype.name} in {case.facility.name}",
+             *(f"  {t}" for t in plan.requested_not_matched_lines()),
              f"  scale           {format_scale(plan.scale)}  (model length "
              f"{_fmt(plan.model_length)} m, prototype {_fmt(case.prototype.length)} m)",
              f"  model fluid     {_fluid_text(plan.model_fluid)}"]

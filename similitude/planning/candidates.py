@@ -547,9 +547,10 @@ def build_problem(case: Case) -> Problem:
 def _check_request(case: Case) -> None:
     """The exact groups the request asks for have what they need in the case."""
     req, proto = case.request, case.prototype
-    if not req.exact:
+    if not req.exact and req.scale is None and req.model_length is None:
         raise InputError("match.exact: empty; expected at least one group to match exactly "
-                         "(e.g. 'froude' for a free-surface test)")
+                         "(e.g. 'froude' for a free-surface test), or a fixed scale or "
+                         "model_length for a report-only plan")
     if proto.kind == "propeller" and not proto.rotation_rates:
         raise InputError("prototype.rotation_rates: empty for a propeller; expected one "
                          "rotation rate [1/s] per speed")

@@ -254,7 +254,9 @@ class MatchRequest:
     relax : bool
         When the exact groups cannot all be met inside the facility, drop the lowest-priority
         one (last in ``exact``), keep the others exact and minimise its log-mismatch instead;
-        the plan says so in its notes. False: raise InfeasibleError instead.
+        the plan then carries a "requested but not matched" line in every output. False
+        (default): refuse with InfeasibleError naming the binding limit and what relaxing
+        would give.
     round_scale : bool
         For the ``"largest_model"`` and ``"smallest_model"`` objectives, replace the limiting
         scale by the nearest convenient one that still satisfies every limit (rounded up for
@@ -271,7 +273,7 @@ class MatchRequest:
     objective: str = "largest_model"
     friction_line: str = "ittc1957"
     form_factor: float | None = None
-    relax: bool = True
+    relax: bool = False
     round_scale: bool = True
 
     def __post_init__(self) -> None:

@@ -44,7 +44,7 @@ from similitude.planning.candidates import (
     model_groups,
     pressure_set_by_facility,
 )
-from similitude.planning.findings import Check, judge
+from similitude.planning.findings import AT_LIMIT_MARGIN, Check, judge
 from similitude.planning.limits import (
     full_scale_waves,
     hard_limits,
@@ -76,10 +76,11 @@ IMO_MIN_TUNNEL_MODEL_LENGTH = 1.25
 MIN_PROPELLER_REYNOLDS = 2.0e5
 
 
-def _check(name, value, limit, unit, kind, source, advice="", soft=True) -> Check:
+def _check(name, value, limit, unit, kind, source, advice="", soft=True,
+           band=AT_LIMIT_MARGIN) -> Check:
     """A check with its status by :func:`similitude.planning.findings.judge`; the advice is
     kept only when the limit is exceeded."""
-    status = judge(float(value), float(limit), kind, soft)
+    status = judge(float(value), float(limit), kind, soft, band)
     return Check(name, float(value), float(limit), unit, kind, status, source,
                  advice if status in ("warning", "fail") else "")
 
@@ -189,10 +190,11 @@ def _fixed_temperature_checks(prob: Problem, c: Candidates) -> list[Check]:
     t = float(np.ravel(c.temperature)[0])
     advice = "the facility does not state this temperature; check the case"
     return [
+        # a relative margin of an absolute temperature means little: only equality is at limit
         _check("fixed model fluid temperature vs facility minimum", t, t_lo, "K", "min",
-               "facility data", advice),
+               "facility data", advice, band=0.0),
         _check("fixed model fluid temperature vs facility maximum", t, t_hi, "K", "max",
-               "facility data", advice),
+               "facility data", advice, band=0.0),
     ]
 
 

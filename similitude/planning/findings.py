@@ -81,7 +81,8 @@ def relative_margin(value: float, limit: float, kind: str) -> float:
     return (value - limit) / abs(limit)
 
 
-def judge(value: float, limit: float, kind: str, soft: bool = True) -> str:
+def judge(value: float, limit: float, kind: str, soft: bool = True,
+          band: float = AT_LIMIT_MARGIN) -> str:
     """The status of a value against a limit.
 
     Parameters
@@ -92,6 +93,9 @@ def judge(value: float, limit: float, kind: str, soft: bool = True) -> str:
         ``"max"`` (value must not exceed limit) or ``"min"`` (must not fall below).
     soft : bool
         A violated soft limit is a ``"warning"``, a violated hard one a ``"fail"``.
+    band : float
+        The "at limit" band [-]; 0 for a quantity whose relative margin means little (an
+        absolute temperature): then only a limit met with equality is "at limit".
 
     Returns
     -------
@@ -107,7 +111,7 @@ def judge(value: float, limit: float, kind: str, soft: bool = True) -> str:
         return "ok" if ok else ("warning" if soft else "fail")
     if m < -EQUALITY_TOLERANCE:
         return "warning" if soft else "fail"
-    return "at limit" if m < AT_LIMIT_MARGIN else "ok"
+    return "at limit" if (m < band or m <= EQUALITY_TOLERANCE) else "ok"
 
 
 @dataclass(frozen=True)

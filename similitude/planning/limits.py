@@ -129,6 +129,9 @@ class Limit:
         verb = "exceeds" if self.kind == "max" else "is below"
         excess = (v / lim - 1.0) if self.kind == "max" else (1.0 - v / lim)
         unit = f" {self.unit}" if self.unit else ""
+        if self.kind == "max" and excess >= 2:  # three times the limit or more: say the factor
+            return (f"{self.name} {v:.4g}{unit} {where} is {v / lim:.3g} times the "
+                    f"{self.limit_words} {lim:.4g}{unit}")
         return (f"{self.name} {v:.4g}{unit} {where} {verb} the {self.limit_words} "
                 f"{lim:.4g}{unit} by {abs(excess) * 100:.3g} %")
 

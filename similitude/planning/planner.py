@@ -46,6 +46,7 @@ from similitude.planning.case import MATCHABLE_GROUPS, Case, dimension_power
 from similitude.planning.checks import facility_checks
 from similitude.planning.conflicts import blockage_notes, find_conflicts
 from similitude.planning.findings import (
+    STATUS_COLOURS,
     Check,
     Conflict,
     checks_html,
@@ -131,6 +132,34 @@ class Plan:
     binding_constraint: str = ""
 
     @property
+    def requested_not_matched(self) -> tuple[dict, ...]:
+        """The groups requested exact that the plan does not match (relaxed with
+        ``matching.relax = true``): ``group``, ``ratio prototype/model`` at the design speed,
+        ``reason`` (why it could not be met), ``scale rounding`` (what was done with the
+        scale). Empty when every requested group is matched."""
+        out = []
+        for group, reason in self.solution.relaxed:
+            cf = next((c for c in self.conflicts if c.group == group), None)
+            out.append({"group": group,
+                        "ratio prototype/model": cf.ratio if cf is not None else 1.0,
+                        "reason": reason,
+                        "scale rounding": self.solution.scale_rounding})
+        return tuple(out)
+
+    def requested_not_matched_lines(self) -> list[str]:
+        """The "requested but not matched" lines every output puts first (empty when none)."""
+        lines = []
+        for d in self.requested_not_matched:
+            lines.append(f"REQUESTED BUT NOT MATCHED: {d['group']} was requested exact; "
+                         f"prototype/model = {d['ratio prototype/model']:.4g} at the design "
+                         "speed; minimised instead because matching.relax = true (reason in "
+                         "the notes)")
+        if lines:
+            rounding = self.solution.scale_rounding or "not rounded"
+            lines.append(f"Scale {format_scale(self.scale, 6)}: {rounding}.")
+        return lines
+
+    @property
     def limiting_scale(self) -> float:
         """The scale at the binding facility limit before rounding to a convenient one [-]
         (``scale`` itself when it was not rounded or was fixed by the case)."""
@@ -191,6 +220,10 @@ class Plan:
             "rotation_ratio": plain(sol.rotation_ratio),
             "model_pressure [Pa]": plain(sol.model_pressure),
             "exact": list(sol.exact),
+            "requested_exact": list(self.case.request.exact),
+            "requested_not_matched": [{k: plain(v) for k, v in d.items()}
+                                      for d in self.requested_not_matched],
+            "requested_not_matched_lines": self.requested_not_matched_lines(),
             "objective": sol.objective,
             "binding_constraint": self.binding_constraint,
             "candidates_searched": sol.candidates_searched,
@@ -230,12 +263,10 @@ class Plan:
 
     def __repr__(self) -> str:
         lines = self._headline()
+        lines[1:1] = [f"  {t}" for t in self.requested_not_matched_lines()]
         lines.append("  speeds:")
         for row in self.speeds.to_dict(orient="records"):
             lines.append("    " + ", ".join(f"{k} {_fmt(v)}" for k, v in row.items()))
-        for group, _ in self.solution.relaxed:
-            lines.append(f"  relaxed: {group} was requested exact but is not attainable here; "
-                         "its mismatch is minimised (see notes)")
         if self.conflicts:
             lines.append("  not matched:")
             for cf in self.conflicts:
@@ -252,11 +283,14 @@ class Plan:
 
     def _repr_html_(self) -> str:
         head = "<br>".join(html.escape(s.strip()) for s in self._headline())
+        warn = "".join(f'<p style="background-color:#{STATUS_COLOURS["fail"]};'
+                       f'color:#000000;font-weight:bold">{html.escape(t)}</p>'
+                       for t in self.requested_not_matched_lines())
         conf = "".join(f"<li><b>{html.escape(c.group)}</b>: {html.escape(c.consequence)}</li>"
                        for c in self.conflicts)
         notes = "".join(f"<li>{html.escape(n)}</li>" for n in self.notes)
         return (
-            f"<div><p>{head}</p><h4>Speeds</h4>{self.speeds.to_html(index=False)}"
+            f"<div>{warn}<p>{head}</p><h4>Speeds</h4>{self.speeds.to_html(index=False)}"
             f"<h4>Groups (design speed)</h4>{self._design_groups().to_html(index=False)}"
             f"<h4>Conflicts</h4><ul>{conf}</ul>"
             f"<h4>Checks: {html.escape(checks_summary(self.checks))}</h4>"
@@ -441,8 +475,13 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
         f"Model fluid chosen: {mf.fluid} at {float(mf.temperature_si) - 273.15:.2f} degC "
         f"(objective '{sol.objective}'); the scale is set by: {sol.binding}."
     )
-    out.append("Exact groups (" + ", ".join(sol.exact) + ") hold to 1e-9 relative at every "
-               "prototype speed; all values are SI.")
+    if sol.exact:
+        out.append("Exact groups (" + ", ".join(sol.exact) + ") hold to 1e-9 relative at every "
+                   "prototype speed; all values are SI.")
+    else:
+        out.append("Report-only plan: no group is matched exactly at the fixed scale; the "
+                   "model speeds, fluid temperature and pressure minimise the mismatch of the "
+                   "reported groups (" + (", ".join(case.request.report) or "none") + ").")
     if sol.solved_by:
         out.append(f"The second exact group is met through the {sol.solved_by}.")
     rounding = sol.scale_rounding

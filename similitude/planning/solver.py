@@ -30,10 +30,12 @@ satisfies every limit (:func:`convenient_scale`, rounded towards a smaller model
 groups stay exact to 1e-9; the limiting scale is kept in ``Solution.limiting_scale``
 (``MatchRequest.round_scale`` switches this off).
 
-When the exact groups cannot all be met inside the facility and the request allows it
-(``MatchRequest.relax``, default), the lowest-priority exact group is dropped, the others stay
-exact and its log-mismatch is minimised; the Solution records why (``Solution.relaxed``).
-Otherwise :class:`~similitude.errors.InfeasibleError` names the binding limit and its excess.
+When the exact groups cannot all be met inside the facility the request is refused by
+default: :class:`~similitude.errors.InfeasibleError` names the binding limit and its excess
+and what relaxing would give (the dropped group and its mismatch ratio). When the request
+allows it (``MatchRequest.relax``, case-file key ``matching.relax``), the lowest-priority
+exact group is dropped instead, the others stay exact and its log-mismatch is minimised; the
+Solution records why (``Solution.relaxed``) and the plan says so loudly.
 
 Matching Froude and Reynolds numbers together needs nu_m / nu_p = lambda^-1.5 [2]_; the solver
 finds that no facility liquid gives it and reports the binding limit.
@@ -68,7 +70,9 @@ from similitude.planning.candidates import (
     Problem,
     TooManyResiduals,
     build_problem,
+    candidate_at,
     evaluate,
+    group_value,
     map_state,
     mismatch,
     model_groups,
@@ -500,8 +504,15 @@ def _round_scale(case: Case, sol: Solution, n_candidates: int) -> Solution:
     that satisfies every limit, re-solved at that fixed scale (exact groups to 1e-9)."""
     req = case.request
     solved = sol.solved_request if sol.solved_request is not None else req
-    if (not req.round_scale or req.scale is not None or req.model_length is not None
-            or solved.objective not in ("largest_model", "smallest_model")
+    if not req.round_scale or req.scale is not None or req.model_length is not None:
+        return sol
+    if sol.relaxed and solved.objective == "least_mismatch":
+        groups = ", ".join(g for g, _ in sol.relaxed)
+        return replace(sol, limiting_scale=sol.scale, limiting_binding=sol.binding,
+                       scale_rounding=f"not rounded: the scale minimises the mismatch of the "
+                                      f"relaxed group ({groups}), which a rounded scale "
+                                      "would raise")
+    if (solved.objective not in ("largest_model", "smallest_model")
             or sol.solved_by == AXIS_WORDS["lam"]):
         return sol
     direction = "up" if solved.objective == "largest_model" else "down"
@@ -566,27 +577,65 @@ def solve(case: Case, n_candidates: int = DEFAULT_CANDIDATES) -> Solution:
         No model satisfies the facility limits; the message names the binding limit and by
         how much it is exceeded at the least-violating candidate.
     """
+    if not case.request.exact:
+        # A report-only plan (fixed scale, no exact group): the model speed is free and is
+        # chosen to minimise the mismatch of the reported groups.
+        case = replace(case, request=replace(case.request, objective="least_mismatch"))
     return _round_scale(case, _solve_relaxing(case, n_candidates), n_candidates)
 
 
 def _solve_relaxing(case: Case, n_candidates: int) -> Solution:
-    """The solve at the limiting scale, dropping the last exact group when allowed."""
+    """The solve at the limiting scale; when the exact groups cannot all be met, drop the
+    last one if the request allows it (``relax``), or refuse naming what dropping would
+    give."""
     try:
         prob = build_problem(case)
         return _solve_problem(prob, n_candidates)
     except (InfeasibleError, TooManyResiduals) as exc:
         req = case.request
         hard = [g for g in req.exact if g not in FREE_GROUPS]
-        if not req.relax or len(hard) < 2:
+        if len(hard) < 2:
             raise
         # Keep the higher-priority groups exact; minimise the mismatch of the dropped one.
         dropped = hard[-1]
         relaxed = replace(req, exact=tuple(g for g in req.exact if g != dropped),
                           report=(dropped,), objective="least_mismatch")
+        if not req.relax:
+            raise type(exc)(_refusal(case, relaxed, dropped, exc, n_candidates)) from None
         sol = _solve_relaxing(replace(case, request=relaxed), n_candidates)
         return replace(sol, relaxed=sol.relaxed + ((dropped, str(exc)),),
                        solved_request=(sol.solved_request if sol.solved_request is not None
                                        else relaxed))
+
+
+def dropped_group_ratio(case: Case, sol: Solution, group: str) -> float:
+    """Prototype over model value of ``group`` at the design speed for a solution of
+    ``case`` (the request actually solved), e.g. the mismatch of a relaxed group [-]."""
+    prob = build_problem(case)
+    c = candidate_at(prob, sol)
+    gm = float(model_groups(prob, c, prob.design, (group,))[group][0])
+    gp = float(np.ravel(group_value(group, prob.proto, prob.propeller))[prob.design])
+    return gp / gm if gm else float("inf")
+
+
+def _refusal(case: Case, relaxed, dropped: str, exc: Exception, n_candidates: int) -> str:
+    """The refusal of a request whose exact groups cannot all be met: the binding reason and
+    what relaxing would give (the dropped group's mismatch at the design speed)."""
+    names = [repr(g) for g in case.request.exact]
+    groups = ", ".join(names[:-1]) + " and " + names[-1]
+    kept = ", ".join(relaxed.exact)
+    head = (f"matching.exact: {groups} cannot all be matched exactly in "
+            f"{case.facility.name}: {str(exc).removeprefix('match.exact: ')}")
+    try:
+        sol = _solve_relaxing(replace(case, request=relaxed), n_candidates)
+        ratio = dropped_group_ratio(replace(case, request=sol.solved_request or relaxed), sol,
+                                    dropped)
+        would = (f"relaxing would keep {kept} exact and give {dropped} a prototype/model "
+                 f"ratio of {ratio:.4g} at the design speed ({format_scale(sol.scale, 6)})")
+    except (InfeasibleError, InputError) as second:
+        would = f"relaxing would not help either: with {kept} alone, {second}"
+    return (f"{head}; {would}; set relax = true under [matching] to plan with {dropped} "
+            "minimised instead, or remove it from exact")
 
 
 def _solve_problem(prob: Problem, n_candidates: int) -> Solution:
@@ -789,6 +838,7 @@ __all__ = [
     "DEFAULT_CANDIDATES",
     "GridResult",
     "convenient_scale",
+    "dropped_group_ratio",
     "search_grid",
     "solve",
 ]

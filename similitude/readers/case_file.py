@@ -9,7 +9,7 @@ section is the full reference with a commented example)::
     facility       an inline [facility] table, a [facility] table with file = "path", or a
                    top-level path string to a facility file (relative to the case file)
     [matching]     exact, report, scale, model_length, choose, friction_line, form_factor,
-                   round_scale,
+                   round_scale, relax,
                    [matching.model_fluid]
     [runs]         speeds, speeds_as, repeats, headings, current, wait_between_runs,
                    [[runs.loading]], [[runs.waves]]
@@ -118,7 +118,7 @@ FACILITY_KEYS = ("file", "kind", "name", "length", "width", "depth", "height", "
                  "open_jet", "wave_periods", "highest_wave", "fastest_rotation",
                  "shortest_model", "longest_model", "shortest_steady_time")
 MATCHING_KEYS = ("exact", "report", "scale", "model_length", "choose", "friction_line",
-                 "form_factor", "model_fluid", "round_scale")
+                 "form_factor", "model_fluid", "round_scale", "relax")
 RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_between_runs",
              "loading", "waves")
 LOADING_KEYS = ("name", "draught", "trim", "displacement")
@@ -356,6 +356,8 @@ def _read_matching(r: FieldReader, data: Any) -> MatchRequest | None:
         kw["form_factor"] = k
     if "round_scale" in t:
         kw["round_scale"] = r.flag(t, "round_scale", path, True)
+    if "relax" in t:
+        kw["relax"] = r.flag(t, "relax", path, False)
     if "model_fluid" in t:
         mf = _read_fluid(r, t["model_fluid"], "matching.model_fluid")
         if mf is None:

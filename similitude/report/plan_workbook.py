@@ -219,11 +219,26 @@ def write_plan(plan: Plan, path, overwrite: bool = False) -> pathlib.Path:
 def _sheet_overview(wb, plan: Plan) -> None:
     ws = wb.create_sheet(SHEET_NAMES[0])
     ws.cell(row=1, column=1, value=f"Model-test plan: {plan.case.name}").font = TITLE_FONT
-    r = _overview_case_rows(ws, plan, 3)
+    set_widths(ws, {"A": 40, "B": 90})  # before the wrapped rows, whose heights follow them
+    r = _overview_unmatched_rows(ws, plan, 2)
+    r = _overview_case_rows(ws, plan, r + 1)
     r = _overview_design_rows(ws, plan, r)
-    set_widths(ws, {"A": 40, "B": 90})
     _overview_cautions(ws, plan_caution(plan.case.facility.kind), plan.notes, r + 1)
     ws.freeze_panes = "A2"
+
+
+def _overview_unmatched_rows(ws, plan: Plan, r: int) -> int:
+    """The "requested but not matched" lines at the top, filled in the colour of a failed
+    check, one wrapped row each; returns the next row."""
+    lines = plan.requested_not_matched_lines()
+    for i, text in enumerate(lines):
+        label = ws.cell(row=r + i, column=1, value="REQUESTED BUT NOT MATCHED")
+        label.font = BOLD
+        label.fill = STATUS_FILLS["fail"]
+        ws.cell(row=r + i, column=2, value=text).fill = STATUS_FILLS["fail"]
+    if lines:
+        wrap_rows(ws, range(r, r + len(lines)), (2,))
+    return r + len(lines)
 
 
 def _overview_case_rows(ws, plan: Plan, r: int) -> int:

@@ -130,3 +130,9 @@ def test_notebook_table_colours_each_status_cell_with_the_shared_colour():
     assert f"background-color:#{STATUS_COLOURS['at limit']}" in text
     assert f"background-color:#{STATUS_COLOURS['not checked']}" in text
     assert "0.04 %" in text and "give z" in text
+
+
+def test_a_zero_band_makes_only_equality_at_limit():
+    # 288.15 K against a 283.15 K minimum: relative margin 1.8 % but 5 K inside the range.
+    assert judge(288.15, 283.15, "min", band=0.0) == "ok"
+    assert judge(283.15, 283.15, "min", band=0.0) == "at limit"

@@ -8,6 +8,7 @@ each test says how the number follows.
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 
 import numpy as np
 import pytest
@@ -141,9 +142,10 @@ def test_froude_and_reynolds_together_are_infeasible_in_a_water_tank():
 
 
 def test_unattainable_lower_priority_group_is_relaxed_and_its_mismatch_minimised():
-    # With relax (default) Froude stays exact and the Reynolds mismatch is minimised: the
+    # With relax = true Froude stays exact and the Reynolds mismatch is minimised: the
     # largest admissible model in the warmest water, the same as the Froude-only plan.
-    relaxed = solver.solve(Case(ship(), tank(), MatchRequest(exact=("froude", "reynolds"))))
+    relaxed = solver.solve(Case(ship(), tank(), MatchRequest(exact=("froude", "reynolds"),
+                                                             relax=True)))
     froude_only = solver.solve(Case(ship(), tank(), MatchRequest(round_scale=False)))
     assert relaxed.exact == ("froude",)
     # Same model to the tolerance of the bounded mismatch minimisation (1e-6).
@@ -239,7 +241,8 @@ def test_tunnel_too_weak_in_pressure_reports_the_closest_reynolds_ratio():
 def test_tunnel_too_weak_in_pressure_keeps_mach_and_minimises_the_reynolds_mismatch():
     # Relaxed: Mach exact; the Reynolds deficit is least at the highest pressure (2 bar) and
     # the largest model (span 0.8 x 3 m, lambda = 8.33).
-    sol = solver.solve(wing_case(pressure_range=(1e5, 2e5)))
+    case = wing_case(pressure_range=(1e5, 2e5))
+    sol = solver.solve(replace(case, request=replace(case.request, relax=True)))
     assert sol.exact == ("mach",)
     assert sol.model_pressure == pytest.approx(2e5, rel=1e-6)
     assert sol.scale == pytest.approx(20.0 / 2.4, rel=1e-6)
@@ -407,7 +410,8 @@ def test_two_groups_through_the_fluid_state_relax_the_last_one():
     # fluid-state variable at once: it is dropped (relax) and reported, or refused (strict).
     base = propeller_case()
     exact = ("advance_ratio", "froude", "cavitation", "reynolds")
-    sol = solver.solve(Case(base.prototype, base.facility, MatchRequest(exact=exact)))
+    sol = solver.solve(Case(base.prototype, base.facility, MatchRequest(exact=exact,
+                                                                        relax=True)))
     assert sol.exact == exact[:3]
     assert sol.relaxed[0][0] == "reynolds"
     with pytest.raises(InputError, match="at most one"):

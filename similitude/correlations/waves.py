@@ -15,10 +15,17 @@ References
        World Scientific, 1991, ch. 3 (linear dispersion relation).
 .. [5] IMO, Resolution MSC.141(76), 2002, Annex sec. 4.1 (JONSWAP gamma = 3.3,
        T_z = T_p / 1.285).
+.. [6] Longuet-Higgins, M. S., "On the statistical distribution of the heights of sea
+       waves", J. Marine Research 11 (1952) 245-266 (Rayleigh distribution of wave heights in
+       a narrow-band sea; the highest of N consecutive waves).
+.. [7] US Army Corps of Engineers, Coastal Engineering Manual, EM 1110-2-1100, Part II,
+       2002, Table II-5-1 (wave classification after Ippen 1966: deep water for
+       h/L from 1/2).
 """
 
 from __future__ import annotations
 
+import functools
 import math
 
 import numpy as np
@@ -194,6 +201,7 @@ def spectral_moment(omega, density, order=0):
     return float(np.trapezoid(w**order * np.asarray(density, dtype=float), w))
 
 
+@functools.lru_cache(maxsize=64)  # a pure function of two scalars, evaluated in the solver loop
 def period_ratios(kind="jonswap", gamma=3.3):
     """Ratios T_1/T_p and T_z/T_p [-] of a spectrum shape, by numerical integration.
 
@@ -367,6 +375,44 @@ def froude_scale_waves(scale, height=None, period=None, spectral_density=None,
 
     return {"height": sc(height, 1.0), "period": sc(period, 0.5),
             "spectral_density": sc(spectral_density, 2.5)}
+
+
+#: Relative depth h/L from which waves are deep-water waves [-] [7]_.
+DEEP_WATER_RELATIVE_DEPTH = 0.5
+
+
+def most_probable_highest_wave(significant_height, n_waves):
+    """Most probable highest of ``n_waves`` Rayleigh-distributed wave heights [m].
+
+    H_max = H_s sqrt(ln N / 2) [6]_.
+
+    Parameters
+    ----------
+    significant_height : numeric
+        H_s = 4 sqrt(m0) [m].
+    n_waves : numeric
+        Number of waves N in the record [-], > 1 (e.g. duration / T_z).
+
+    Notes
+    -----
+    With Rayleigh heights, P(H > h) = exp(-h^2/H_rms^2) and H_s = sqrt(2) H_rms; the mode of
+    the largest of N independent heights is close to H_rms sqrt(ln N) for large N, hence
+    H_s sqrt(ln N / 2): 1.86 H_s for N = 1000, 1.92 H_s for N = 1543 [6]_.
+    """
+    n = np.asarray(n_waves, dtype=float)
+    if np.any(~(n > 1)):
+        raise InputError(f"n_waves: {n_waves!r} is not valid; expected more than one wave")
+    return np.multiply(significant_height, np.sqrt(np.log(n) / 2.0))
+
+
+def waves_in_duration(duration, peak_period, spectrum="jonswap", gamma=3.3):
+    """Number of waves N = D / T_z [-] in a sea of duration D [s] and peak period T_p [s].
+
+    T_z is the mean zero-crossing period of the spectrum (:func:`convert_period`); N is the
+    same at model and full scale under Froude scaling (both D and T_z scale as sqrt(lambda)).
+    """
+    return np.divide(duration, convert_period(peak_period, "peak", "zero_crossing", spectrum,
+                                              gamma))
 
 
 def model_sea_duration(full_scale_duration, scale):

@@ -24,6 +24,10 @@ References
        (flat-plate transition band about 5e5 to 5e6).
 .. [4] Lamb, H., "Hydrodynamics", 6th ed., Cambridge, 1932, §267 (capillary-gravity waves:
        phase speed minimum at lambda_w = 2 pi sqrt(sigma/(rho g)), 1.71 cm for water).
+.. [6] US Army Corps of Engineers, Coastal Engineering Manual, EM 1110-2-1100, Part II, 2002,
+       Table II-5-1 (wave classification after Ippen 1966: deep water from h/L = 1/2).
+.. [7] Dean, R. G. and Dalrymple, R. A., "Water Wave Mechanics for Engineers and
+       Scientists", World Scientific, 1991, ch. 3 (linear dispersion relation).
 .. [5] Schuster, S., "Beitrag zur Frage der Kanalkorrektur bei Modellversuchen",
        Schiffstechnik 3 (1955/56) 93-96; listed in ITTC 7.5-02-02-01 §3.6.3.
 """
@@ -37,7 +41,7 @@ import numpy as np
 
 from similitude.constants import G0
 from similitude.correlations import blockage, friction
-from similitude.correlations.waves import wave_length
+from similitude.correlations.waves import DEEP_WATER_RELATIVE_DEPTH, wave_length
 from similitude.planning.candidates import (
     Candidates,
     Problem,
@@ -302,6 +306,58 @@ def wave_checks(case, scale: float, c: Candidates | None = None) -> list[Check]:
                           CAPILLARY_MAX_SHARE, "", "max",
                           "capillary-gravity dispersion (Lamb 1932 §267); 1 % common practice",
                           "waves too short: capillarity adds to gravity restoring"))
+    out.extend(basin_depth_checks(case, scale))
+    return out
+
+
+def basin_depth_checks(case, scale: float) -> list[Check]:
+    """Water depth of the basin against the model wave length of each wave condition.
+
+    A deep-water prototype sea (no site depth, or h_p/L_p >= 1/2) needs deep-water model waves:
+    h/L >= 1/2 in the basin, L the model wave length there at the Froude-scaled period (the
+    peak period of an irregular sea) by linear dispersion, omega^2 = g k tanh(k h) [6]_ [7]_.
+    Below it the model waves are shorter and steeper than the Froude-scaled deep-water waves
+    L_0 = g T_m^2 / (2 pi); the advice gives both changes. A finite-depth prototype sea gets
+    an info row with the basin depth that scales its site depth (h_p / lambda).
+    """
+    fac, proto = case.facility, case.prototype
+    out: list[Check] = []
+    if not fac.free_surface:
+        return out
+    for label, _, period, height in full_scale_waves(case):
+        if period is None:
+            continue
+        tm = period / math.sqrt(scale)
+        site = proto.water_depth
+        if site is not None and site / float(wave_length(period, site)) < \
+                DEEP_WATER_RELATIVE_DEPTH:
+            hb = site / scale
+            out.append(Check.info(
+                f"{label}: basin depth for the site depth h_p/lambda", hb, "m",
+                "Froude scaling of the site depth (finite-depth sea, h/L below 1/2: USACE "
+                "EM 1110-2-1100 (2002) Part II, Table II-5-1)",
+                f"the prototype sea is in finite depth: set the basin water depth to "
+                f"{hb:.3g} m (now {fac.depth:g} m) so the waves scale"))
+            continue
+        l0 = G0 * tm**2 / (2 * math.pi)
+        lb = float(wave_length(tm, fac.depth))
+        rel = fac.depth / lb
+        status = judge(rel, DEEP_WATER_RELATIVE_DEPTH, "min", soft=True)
+        advice = (f"at the basin depth {fac.depth:g} m the model waves of period {tm:.3g} s "
+                  f"are {lb:.4g} m long against the Froude-scaled deep-water {l0:.4g} m "
+                  f"({(1 - lb / l0) * 100:.2g} % shorter) and {(l0 / lb - 1) * 100:.2g} % "
+                  "steeper (linear dispersion)")
+        if height is not None:
+            hm = height / scale
+            advice += f", H/L {hm / lb:.3g} against {hm / l0:.3g}"
+        if status == "warning":
+            advice += ("; use a deeper basin or a smaller model, or accept finite-depth "
+                       "model waves")
+        out.append(Check(f"{label}: basin depth over model wave length h/L (deep water)", rel,
+                         DEEP_WATER_RELATIVE_DEPTH, "", "min", status,
+                         "deep water from h/L = 1/2: USACE Coastal Engineering Manual "
+                         "EM 1110-2-1100 (2002) Part II, Table II-5-1 (after Ippen 1966); "
+                         "wave lengths by linear dispersion (Dean & Dalrymple 1991)", advice))
     return out
 
 
@@ -312,6 +368,7 @@ __all__ = [
     "IMO_MIN_TUNNEL_MODEL_LENGTH",
     "INCOMPRESSIBLE_MACH",
     "MIN_PROPELLER_REYNOLDS",
+    "basin_depth_checks",
     "facility_checks",
     "wave_checks",
 ]

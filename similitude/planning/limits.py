@@ -29,7 +29,7 @@ References
        width); from memory, medium confidence.
 .. [5] Longuet-Higgins, M. S., "On the statistical distribution of the heights of sea waves",
        J. Marine Research 11 (1952) 245-266 (Rayleigh heights: the most probable largest of N
-       waves is H_s sqrt(ln N / 2), 1.86 H_s for N = 1000).
+       waves is H_s sqrt(ln N / 2), 1.86 H_s for N = 1000, 1.92 H_s for N = 1543).
 """
 
 from __future__ import annotations
@@ -40,9 +40,15 @@ from dataclasses import dataclass
 import numpy as np
 
 from similitude.constants import G0
-from similitude.correlations.waves import wave_length, wave_period
+from similitude.correlations.waves import (
+    convert_period,
+    most_probable_highest_wave,
+    wave_length,
+    wave_period,
+)
 from similitude.planning.case import dimension_power
 from similitude.planning.findings import Check, judge
+from similitude.planning.matrix import DEFAULT_SEA_DURATION
 
 #: Kelvin wedge half-angle arcsin(1/3) [rad] [1].
 KELVIN_HALF_ANGLE = math.asin(1.0 / 3.0)
@@ -72,8 +78,6 @@ BARLOW_SPAN_RATIO = 0.8
 #: memory: keeps the wall effect on the propeller small; no source at hand).
 PROPELLER_TUNNEL_DIAMETER_RATIO = 0.5
 
-#: Largest over significant wave height in a long irregular record (N = 1000) [-] [5].
-MAX_OVER_SIGNIFICANT_HEIGHT = math.sqrt(math.log(1000.0) / 2.0)
 
 
 @dataclass(frozen=True)
@@ -409,19 +413,41 @@ def full_scale_waves(case):
     return out
 
 
+def sea_wave_count(wave) -> tuple[float, float, float]:
+    """(N, duration [s], T_z [s]) of an irregular sea: N = D / T_z waves in its full-scale
+    duration D (the case's, or the 3 h default of the run matrix), T_z from its spectrum."""
+    duration = DEFAULT_SEA_DURATION if wave.duration is None else float(wave.duration)
+    gamma = wave.gamma if wave.spectrum == "jonswap" else 3.3
+    tz = float(convert_period(wave.peak_period, "peak", "zero_crossing", wave.spectrum, gamma))
+    return duration / tz, duration, tz
+
+
+def highest_wave_words(wave) -> tuple[float, str]:
+    """(H_max/H_s [-], the method in words) of an irregular sea: the most probable highest of
+    its N = D/T_z Rayleigh-distributed waves [5]_."""
+    n, duration, tz = sea_wave_count(wave)
+    factor = float(most_probable_highest_wave(1.0, max(n, 1.0 + 1e-9)))
+    return factor, (f"most probable highest of N = D/T_z = {duration:.6g} s / {tz:.4g} s = "
+                    f"{n:.0f} Rayleigh-distributed waves (full-scale duration and "
+                    f"zero-crossing period of the {wave.spectrum} spectrum): H_max = H_s "
+                    f"sqrt(ln N / 2) = {factor:.3f} H_s (Longuet-Higgins 1952)")
+
+
 def wavemaker_limits(case, scale) -> list[Limit]:
     """Wavemaker period range and largest wave height as hard limits over scales ``scale``.
 
     Froude scaling of the waves: T_m = T_p / sqrt(lambda), H_m = H_p / lambda; an irregular
-    sea must reach its largest wave, 1.86 H_s for N = 1000 Rayleigh-distributed heights
-    (Longuet-Higgins 1952) [5]_. The limits are the facility's data.
+    sea must reach its most probable highest wave over the requested duration,
+    H_s sqrt(ln N / 2) with N = D / T_z (Longuet-Higgins 1952) [5]_, 1.92 H_s for a 3 h
+    JONSWAP sea of T_p = 9 s. The limits are the facility's data.
     """
     fac = case.facility
     out: list[Limit] = []
     if not fac.free_surface or not case.matrix.waves:
         return out
     lam = np.asarray(scale, dtype=float)
-    for label, kind, period, height in full_scale_waves(case):
+    for (label, kind, period, height), wave in zip(full_scale_waves(case), case.matrix.waves,
+                                                    strict=True):
         if period is not None and fac.wavemaker_period_range is not None:
             tm = period / np.sqrt(lam)
             lo, hi = fac.wavemaker_period_range
@@ -432,11 +458,14 @@ def wavemaker_limits(case, scale) -> list[Limit]:
                              "facility data", "wavemaker's longest period",
                              "the wavemaker cannot make it; use a smaller model"))
         if fac.wavemaker_max_height is not None and height is not None:
-            factor = 1.0 if kind == "regular" else MAX_OVER_SIGNIFICANT_HEIGHT
-            what = "model wave height" if kind == "regular" else \
-                "largest model wave 1.86 H_s (Longuet-Higgins 1952, N = 1000)"
+            if kind == "regular":
+                factor, what, how = 1.0, "model wave height", "facility data"
+            else:
+                factor, method = highest_wave_words(wave)
+                what = "most probable highest model wave"
+                how = f"facility data; {method}"
             out.append(Limit(f"{label}: {what}", height * factor / lam,
-                             fac.wavemaker_max_height, "max", "m", "facility data",
+                             fac.wavemaker_max_height, "max", "m", how,
                              "wavemaker's highest wave",
                              "the wavemaker cannot make it; use a smaller model"))
     return out
@@ -450,13 +479,14 @@ __all__ = [
     "IMO_TUNNEL_BLOCKAGE",
     "KELVIN_HALF_ANGLE",
     "KELVIN_WIDTH_RATIO",
-    "MAX_OVER_SIGNIFICANT_HEIGHT",
     "PROPELLER_TUNNEL_DIAMETER_RATIO",
     "TANK_BLOCKAGE_LIMIT",
     "Limit",
     "HULL_KINDS",
     "applies_to_search",
     "full_scale_waves",
+    "highest_wave_words",
+    "sea_wave_count",
     "hard_limits",
     "missing_limits",
     "scale_is_fixed",

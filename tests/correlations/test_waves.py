@@ -210,3 +210,20 @@ def test_runs_needed_for_a_sea_state_round_up():
     dm, n = waves.runs_for_duration(3 * 3600, 36.0, np.array([400.0, 1800.0, 0.0]))
     assert float(dm) == pytest.approx(1800.0)
     assert n.tolist() == [5, 1, 0]
+
+
+def test_most_probable_highest_of_1000_rayleigh_waves_is_1_86_hs():
+    # Longuet-Higgins (1952): H_max = H_s sqrt(ln N / 2); N = 1000: sqrt(6.9078/2) = 1.8585
+    assert waves.most_probable_highest_wave(1.0, 1000) == pytest.approx(1.8585, abs=1e-4)
+    assert waves.most_probable_highest_wave(4.0, 1000) == pytest.approx(4 * 1.8585, abs=4e-4)
+
+
+def test_highest_wave_needs_more_than_one_wave():
+    with pytest.raises(InputError, match="n_waves"):
+        waves.most_probable_highest_wave(1.0, 1.0)
+
+
+def test_waves_in_three_hours_of_a_jonswap_sea_use_its_zero_crossing_period():
+    # IMO MSC.141(76) Annex §4.1: JONSWAP gamma 3.3 has T_z = T_p/1.285; 3 h at T_p = 9 s:
+    # N = 10800/(9/1.285) = 1542.
+    assert waves.waves_in_duration(10800.0, 9.0) == pytest.approx(10800 / (9 / 1.285), rel=2e-3)

@@ -89,32 +89,42 @@ def test_short_model_waves_fail_the_capillary_period_limit():
     assert c.status == "warning"
 
 
-def test_wavemaker_height_of_an_irregular_sea_uses_1_86_hs():
-    # Longuet-Higgins (1952): largest of 1000 Rayleigh waves sqrt(ln 1000 / 2) H_s = 1.86 H_s;
-    # H_s = 6 m at 1:30 -> 0.2 m; 1.86 x 0.2 = 0.372 m > 0.3 m wavemaker limit.
-    # The wavemaker is a hard limit: a fixed 1:30 model is infeasible, by 0.3717/0.3 - 1 = 24 %.
+# The highest wave of an irregular sea: the most probable largest of N Rayleigh heights,
+# H_s sqrt(ln N / 2) (Longuet-Higgins 1952), N = D/T_z. A 3 h JONSWAP sea (gamma 3.3, the
+# default duration) of T_p = 12 s: T_z = T_p/1.285 (IMO MSC.141(76) Annex §4.1) = 9.339 s,
+# N = 10800/9.339 = 1156.5, factor sqrt(ln 1156.5 / 2) = 1.8780.
+N_3H_12S = 3 * 3600.0 / (12.0 / 1.285)
+FACTOR_3H_12S = math.sqrt(math.log(N_3H_12S) / 2.0)
+
+
+def test_wavemaker_height_of_an_irregular_sea_is_the_most_probable_highest_wave():
+    # H_s = 6 m at 1:30 -> 0.2 m; 1.878 x 0.2 = 0.3756 m > 0.3 m wavemaker limit.
+    # The wavemaker is a hard limit: a fixed 1:30 model is infeasible, by 0.3756/0.3 - 1 = 25 %.
     spec = MatrixSpec(waves=(WaveCondition("irregular", significant_height=6.0,
                                            peak_period=12.0, name="sea"),))
     fac = tank(width=20.0, wavemaker_max_height=0.3, wavemaker_period_range=(0.5, 4.0))
     with pytest.raises(InfeasibleError) as exc:
         solver.solve(Case(ship(), fac, MatchRequest(scale=30.0), spec))
     msg = str(exc.value)
-    largest = 0.2 * math.sqrt(math.log(1000) / 2)
-    assert "sea: largest model wave" in msg and "wavemaker's highest wave 0.3 m" in msg
-    assert f"{largest:.4g} m" in msg and f"by {(largest / 0.3 - 1) * 100:.3g} %" in msg
+    largest = 0.2 * FACTOR_3H_12S
+    assert "sea: most probable highest model wave" in msg
+    assert "wavemaker's highest wave 0.3 m" in msg
+    assert "0.3756 m" in msg and round(largest, 4) == 0.3756
+    assert "by 25.2 %" in msg and round((largest / 0.3 - 1) * 100, 1) == 25.2
 
 
 def test_wavemaker_height_sets_the_largest_model_of_a_wave_test():
     # Kelvin width 20/0.707 = 28 m, depth Froude (lambda >= 7.0) and carriage allow large
-    # models; H_s = 6 m needs 1.86 H_s / lambda <= 0.3 m -> lambda = 6 x 1.8585 / 0.3 = 37.17;
-    # T_m = 12/sqrt(37.17) = 1.97 s lies inside the 0.5-4 s wavemaker range.
+    # models; H_s = 6 m needs 1.878 H_s / lambda <= 0.3 m -> lambda = 6 x 1.878 / 0.3 = 37.56;
+    # T_m = 12/sqrt(37.56) = 1.96 s lies inside the 0.5-4 s wavemaker range.
     spec = MatrixSpec(waves=(WaveCondition("irregular", significant_height=6.0,
                                            peak_period=12.0, name="sea"),))
     fac = tank(width=20.0, wavemaker_max_height=0.3, wavemaker_period_range=(0.5, 4.0))
     case = Case(ship(dimensions={}), fac, MatchRequest(round_scale=False), spec)
     sol = solver.solve(case)
-    assert sol.scale == pytest.approx(6.0 * math.sqrt(math.log(1000) / 2) / 0.3, rel=1e-9)
-    assert "largest model wave" in sol.binding
+    # rel 1e-4: T_z/T_p of the program's spectrum integration against IMO's 1/1.285
+    assert sol.scale == pytest.approx(6.0 * FACTOR_3H_12S / 0.3, rel=1e-4)
+    assert "most probable highest model wave" in sol.binding
 
 
 def test_wavemaker_period_range_is_reported_with_margins():

@@ -5,6 +5,7 @@ Kept light (no pandas, no openpyxl): :mod:`similitude.cli` imports it for every 
 
 from __future__ import annotations
 
+import argparse
 import json
 from collections.abc import Iterable
 from pathlib import Path
@@ -13,10 +14,25 @@ from typing import Any
 from similitude.cautions import caution_line
 from similitude.errors import InputError
 from similitude.plain_data import plain, to_json
+from similitude.report.page import PAPER_SIZES, paper_name
 
 #: Printed under the top-level help: the outputs are estimates (each summary prints the caution
 #: worded for its own kind of test, :func:`similitude.cautions.caution_line`).
 CAUTION = caution_line()
+
+
+def add_paper_option(parser) -> None:
+    """``--paper``: the paper size the workbook's sheets are set up to print on."""
+    parser.add_argument("--paper", metavar="SIZE", type=_paper, default="A4",
+                        help="paper size the workbook prints on: "
+                        + " or ".join(PAPER_SIZES) + " (default: %(default)s)")
+
+
+def _paper(text: str) -> str:
+    try:
+        return paper_name(text)
+    except InputError as exc:  # argparse prints it as the option's error, exit code 2
+        raise argparse.ArgumentTypeError(str(exc).removeprefix("paper: ")) from exc
 
 
 def workbook_path(text: str, option: str = "-o", example: str = "plan.xlsx") -> Path:

@@ -14,6 +14,7 @@ import argparse
 from dataclasses import replace
 from pathlib import Path
 
+from similitude.commands.common import add_paper_option
 from similitude.correlations.ittc78 import (
     AIR_RESISTANCE_METHODS,
     CORRELATION_METHODS,
@@ -95,6 +96,7 @@ def add_parser(sub) -> argparse.ArgumentParser:
     p.add_argument("--propeller", metavar="PARTICULARS",
                    help="full-scale propeller for --open-water: 'diameter=4.2 m; "
                    "pitch_ratio=1.0; chord_ratio=0.3; blades=4; thickness_ratio=0.04'")
+    add_paper_option(p)
     p.set_defaults(func=run)
     return p
 
@@ -121,7 +123,8 @@ def run(args) -> int:
     if args.output:
         written = write_results(args.output, prediction.extrapolation,
                                 uncertainty=prediction.uncertainty,
-                                open_water=prediction.open_water, overwrite=args.force)
+                                open_water=prediction.open_water, overwrite=args.force,
+                                paper=args.paper)
     if args.json:
         data = prediction.to_dict()
         if written is not None:

@@ -16,6 +16,7 @@ from typing import Any
 
 from similitude.cautions import caution_line
 from similitude.commands.common import (
+    add_paper_option,
     check_targets,
     folder_files,
     json_text,
@@ -58,6 +59,7 @@ def add_parser(sub) -> argparse.ArgumentParser:
                    help="write the workbook here (not written without this option)")
     p.add_argument("--force", action="store_true",
                    help="replace existing output files")
+    add_paper_option(p)
     p.add_argument("--json", action="store_true",
                    help="print the plan as JSON on stdout instead of the summary")
     p.add_argument("--csv", metavar="DIR",
@@ -85,7 +87,7 @@ def run(args) -> int:
 
     written: list[Path] = []
     if args.output:
-        written.append(_write_workbook(plan, args.output, args.force))
+        written.append(_write_workbook(plan, args.output, args.force, args.paper))
     if csv_texts:
         written.extend(_write_csv(csv_texts, Path(args.csv).expanduser(), args.force))
     if args.plots:
@@ -119,12 +121,12 @@ def _have_matplotlib() -> bool:
     return True
 
 
-def _write_workbook(plan: Plan, path: str, force: bool) -> Path:
+def _write_workbook(plan: Plan, path: str, force: bool, paper: str = "A4") -> Path:
     # The workbook writer loads openpyxl (a heavy library): imported only when -o asks for a
     # workbook, so a run for the summary or --json stays quick.
     from similitude.report.plan_workbook import write_plan
 
-    return write_plan(plan, path, overwrite=force)
+    return write_plan(plan, path, overwrite=force, paper=paper)
 
 
 def _csv_texts(plan: Plan) -> dict[str, str]:

@@ -167,17 +167,18 @@ class Plan:
         return self.scale if lam0 is None else lam0
 
     # -- outputs -----------------------------------------------------------------------------
-    def to_excel(self, path, overwrite: bool = False):
+    def to_excel(self, path, overwrite: bool = False, paper: str = "A4"):
         """Write the plan workbook (``similitude.report.plan_workbook.write_plan``); returns the
         Path.
 
-        Refuses to overwrite an existing file unless ``overwrite=True``.
+        Refuses to overwrite an existing file unless ``overwrite=True``; ``paper`` is the
+        paper size the sheets print on (``"A4"`` or ``"letter"``).
         """
         # A notebook convenience only: the report stage sits above planning, so it is imported
         # on call (and the commands call the writer directly).
         from similitude.report.plan_workbook import write_plan
 
-        return write_plan(self, path, overwrite=overwrite)
+        return write_plan(self, path, overwrite=overwrite, paper=paper)
 
     def plot(self, kind: str = "groups", **kwargs):
         """Plot the plan (``similitude.report.plots.plot_plan``; matplotlib needed)."""

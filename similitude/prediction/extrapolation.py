@@ -451,12 +451,13 @@ class Extrapolation:
             "notes": list(self.notes),
         })
 
-    def to_excel(self, path, overwrite: bool = False, uncertainty=None, open_water=None):
+    def to_excel(self, path, overwrite: bool = False, uncertainty=None, open_water=None,
+                 paper: str = "A4"):
         """Write the workbook (see :func:`similitude.report.results_workbook.write_results`)."""
         from similitude.report.results_workbook import write_results
 
         return write_results(path, self, uncertainty=uncertainty, open_water=open_water,
-                             overwrite=overwrite)
+                             overwrite=overwrite, paper=paper)
 
 
 # -- the pipeline in SI ------------------------------------------------------------------------

@@ -110,16 +110,17 @@ class Prediction:
                                   "table": self.open_water.table.to_dict(orient="records")}
         return plain(data)
 
-    def to_excel(self, path: str | Path, overwrite: bool = False) -> Path:
+    def to_excel(self, path: str | Path, overwrite: bool = False, paper: str = "A4") -> Path:
         """Write the results workbook (a notebook convenience for
         :func:`similitude.report.results_workbook.write_results`); returns the Path.
 
-        An existing file is not replaced unless ``overwrite`` is True.
+        An existing file is not replaced unless ``overwrite`` is True; ``paper`` is the paper
+        size the sheets print on (``"A4"`` or ``"letter"``).
         """
         from similitude.report.results_workbook import write_results
 
         return write_results(path, self.extrapolation, uncertainty=self.uncertainty,
-                             open_water=self.open_water, overwrite=overwrite)
+                             open_water=self.open_water, overwrite=overwrite, paper=paper)
 
 
 def predict(runs: ResistanceRuns, ship: ShipParticulars,

@@ -31,7 +31,7 @@ from similitude.units import radians_per_turn, spell_revolutions, to_si, ureg
 _HEADER = re.compile(r"^\s*(?P<name>.*?)\s*\[(?P<unit>[^\]]*)\]\s*$")
 
 FORCE = "[mass] * [length] / [time] ** 2"
-EXTRA_RUN_PREFIX = "extra row "
+EXTRA_RUN_PREFIX = "extra "
 """Run id given to a row whose run cell is blank: a run beyond the plan's matrix."""
 SPEED = "[length] / [time]"
 TORQUE = "[mass] * [length] ** 2 / [time] ** 2"
@@ -222,11 +222,13 @@ def _find_columns(headers: list[Any], specs: Iterable[ColumnSpec], where: str,
     return found
 
 
-def _run_ids(cells: list[Any], row_numbers: list[int]) -> list[str]:
+def _run_ids(cells: list[Any]) -> list[str]:
     # A blank run id marks a run made beyond the plan (e.g. a low-speed series for the form
-    # factor); it is named after its row and not checked.
-    return [f"{EXTRA_RUN_PREFIX}{row}" if _is_blank(cell) else run_id(cell)
-            for row, cell in zip(row_numbers, cells, strict=True)]
+    # factor); such runs are numbered in the order of the file ("extra 1", "extra 2" ...) and
+    # not checked against the plan.
+    blanks = iter(range(1, len(cells) + 1))
+    return [f"{EXTRA_RUN_PREFIX}{next(blanks)}" if _is_blank(cell) else run_id(cell)
+            for cell in cells]
 
 
 def _numbers(cells: list[Any], row_numbers: list[int], header: str, where: str,
@@ -304,7 +306,7 @@ def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
         spec, header, unit = found[spec.key]
         cells = list(frame[header])
         if spec.dimension is None:
-            out[spec.key] = _run_ids(cells, row_numbers)
+            out[spec.key] = _run_ids(cells)
             continue
         if unit is None:
             problems.append(f"{where}column {header!r} has no unit in its header; expected e.g. "
@@ -359,7 +361,8 @@ def resistance_runs_from_frame(frame, temperature: Any = None,
     plan_runs : iterable, optional
         Run ids of the plan's matrix; a run id outside it is an error. Without a ``run``
         column the rows are free (numbered 1, 2, ...) and not checked against the plan; a
-        blank run cell marks one extra run beyond the plan (id ``"extra row N"``).
+        blank run cell marks one extra run beyond the plan (ids ``"extra 1"``, ``"extra 2"`` ...
+        in file order).
     source : str
         File name for the messages.
 

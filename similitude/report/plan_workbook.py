@@ -28,8 +28,6 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 from openpyxl import Workbook
-from openpyxl.chart import Reference, Series
-from openpyxl.chart.shapes import GraphicalProperties
 from openpyxl.styles import PatternFill
 from openpyxl.utils import get_column_letter
 from openpyxl.utils.cell import absolute_coordinate
@@ -50,12 +48,15 @@ from similitude.planning.matrix import facility_time_hours, runs_needed
 from similitude.planning.planner import Plan
 from similitude.report import formulas
 from similitude.report.atomic import check_target, write_atomic
+from similitude.report.page import PageSetup
 from similitude.report.sheets import (
     BOLD,
     INPUT_FILL,
     TITLE_FONT,
     LongTable,
+    add_series,
     cell_value,
+    chart_below,
     fit_row_height,
     fit_widths,
     header_row,
@@ -121,8 +122,11 @@ PRINT_TITLE_ROWS = {"Similarity": 1, "Facility checks": 1, "Runs": 1, "Scaling":
 
 
 # -- the workbook ---------------------------------------------------------------------------
-def build_workbook(plan: Plan) -> tuple[Workbook, list[LongTable]]:
+def build_workbook(plan: Plan, paper: str = "A4") -> tuple[Workbook, list[LongTable]]:
     """The openpyxl Workbook of a plan and its long tables (rows not yet written).
+
+    ``paper`` is the paper size the sheets are set up to print on (``"A4"`` or ``"letter"``,
+    :data:`similitude.report.sheets.PAPER_SIZES`).
 
     Returns
     -------
@@ -131,18 +135,20 @@ def build_workbook(plan: Plan) -> tuple[Workbook, list[LongTable]]:
     """
     wb = Workbook()
     wb.remove(wb.active)
-    tables = add_plan_sheets(wb, plan)
+    tables = add_plan_sheets(wb, plan, paper=paper)
     # no cached values are stored: ask the application to calculate everything on load
     wb.calculation = CalcProperties(fullCalcOnLoad=True)
     return wb, tables
 
 
-def add_plan_sheets(wb: Workbook, plan: Plan, prefix: str = "") -> list[LongTable]:
+def add_plan_sheets(wb: Workbook, plan: Plan, prefix: str = "", paper: str = "A4"
+                    ) -> list[LongTable]:
     """Build the sheets of a plan into ``wb``, after its existing sheets, each sheet name
     starting with ``prefix`` (a campaign workbook holds several plans: "T1 Overview", ...).
 
     The test-day temperature cell is named ``TestDayTemperature``, prefixed like the sheets
-    (letters, digits and underscores of ``prefix``: "T1_TestDayTemperature").
+    (letters, digits and underscores of ``prefix``: "T1_TestDayTemperature"). ``paper`` is
+    the paper size the sheets print on (``"A4"`` or ``"letter"``).
 
     Returns
     -------
@@ -161,8 +167,9 @@ def add_plan_sheets(wb: Workbook, plan: Plan, prefix: str = "") -> list[LongTabl
     tables += _sheet_test_day(view, plan)
     _sheet_charts(view, plan)
     _sheet_basis(view, plan)
+    page = PageSetup(title=plan.case.name, paper=paper)
     for ws in wb.worksheets[first:]:
-        print_setup(ws, PRINT_TITLE_ROWS.get(ws.title[len(prefix):]))
+        print_setup(ws, page, PRINT_TITLE_ROWS.get(ws.title[len(prefix):]), "A:A")
     name = re.sub(r"\W", "_", prefix.strip()) + ("_" if prefix.strip() else "") + \
         "TestDayTemperature"
     ref = f"'{prefix}{TEST_DAY_SHEET}'!{absolute_coordinate(TEMPERATURE_CELL)}"
@@ -181,7 +188,7 @@ class _PrefixedWorkbook:
         return self.wb.create_sheet(self.prefix + title)
 
 
-def write_plan(plan: Plan, path, overwrite: bool = False) -> pathlib.Path:
+def write_plan(plan: Plan, path, overwrite: bool = False, paper: str = "A4") -> pathlib.Path:
     """Write the test-plan workbook of ``plan`` to ``path`` (.xlsx), atomically.
 
     Parameters
@@ -193,6 +200,8 @@ def write_plan(plan: Plan, path, overwrite: bool = False) -> pathlib.Path:
         Target file; its directory must exist.
     overwrite : bool
         Replace an existing file. Without it an existing file is never touched.
+    paper : str
+        Paper size of the page setup: ``"A4"`` (default) or ``"letter"``.
 
     Returns
     -------
@@ -206,7 +215,7 @@ def write_plan(plan: Plan, path, overwrite: bool = False) -> pathlib.Path:
     """
     target = pathlib.Path(path).expanduser()
     check_target(target, overwrite)  # fail before the work
-    wb, tables = build_workbook(plan)
+    wb, tables = build_workbook(plan, paper)
 
     def writer(tmp: pathlib.Path) -> None:
         wb.save(tmp)
@@ -665,13 +674,17 @@ def _temperature_range(fluid: str):
 
 # -- Charts ---------------------------------------------------------------------------------
 def _sheet_charts(wb, plan: Plan) -> None:
+    """The speed table, the friction line under it, and the two charts below both."""
     ws = wb.create_sheet(SHEET_NAMES[7])
     n, re_m, re_p = _speed_table(ws, plan.matrix)
-    ng = _friction_line_table(ws, re_m, re_p)
-    ws.add_chart(_reynolds_chart(ws, n), "K2")
-    ws.add_chart(_friction_chart(ws, n, ng), "K22")
+    line_header = n + 4
+    ng = _friction_line_table(ws, re_m, re_p, line_header)
     ws.freeze_panes = "A2"
-    fit_widths(ws)
+    fit_widths(ws, rows=range(1, line_header + ng + 1))
+    fit_row_height(ws, 1)
+    fit_row_height(ws, line_header)
+    below = chart_below(ws, _reynolds_chart(ws, n), line_header + ng)
+    chart_below(ws, _friction_chart(ws, n, ng, line_header), below, gap=1)
 
 
 def _speed_table(ws, matrix):
@@ -692,17 +705,18 @@ def _speed_table(ws, matrix):
     return len(by), re_m, re_p
 
 
-def _friction_line_table(ws, re_m, re_p) -> int:
-    """The ITTC-1957 line over the Reynolds numbers of model and ship, in columns H-I; returns
-    its number of rows."""
+def _friction_line_table(ws, re_m, re_p, header: int) -> int:
+    """The ITTC-1957 line over the Reynolds numbers of model and ship, in columns A-B from
+    row ``header``; returns its number of rows."""
     lo = math.floor(math.log10(max(np.nanmin(re_m[re_m > 0]) if (re_m > 0).any() else 1e5,
                                    1e4)))
     hi = math.ceil(math.log10(max(np.nanmax(re_p) if np.isfinite(re_p).any() else 1e9, 1e6)))
     grid = np.logspace(lo, hi, 8 * (hi - lo) + 1)
-    header_row(ws, 1, ["Reynolds number [-]", "ITTC-1957 C_F [-]"], 8)
+    ws.cell(row=header - 1, column=1, value="ITTC-1957 friction line").font = BOLD
+    header_row(ws, header, ["Reynolds number [-]", "ITTC-1957 C_F [-]"])
     for i, (rv, cv) in enumerate(zip(grid, friction_coefficient(grid), strict=True)):
-        ws.cell(row=2 + i, column=8, value=float(rv)).number_format = "0.00E+00"
-        ws.cell(row=2 + i, column=9, value=float(cv)).number_format = "0.00000"
+        ws.cell(row=header + 1 + i, column=1, value=float(rv)).number_format = "0.00E+00"
+        ws.cell(row=header + 1 + i, column=2, value=float(cv)).number_format = "0.00000"
     return len(grid)
 
 
@@ -710,32 +724,20 @@ def _reynolds_chart(ws, n: int):
     ch = scatter_chart("Model and full-scale Reynolds numbers", "prototype speed [kn]",
                        "Reynolds number [-]")
     ch.y_axis.scaling.logBase = 10
-    x = Reference(ws, min_col=1, min_row=2, max_row=1 + n)
+    ch.y_axis.number_format = "0E+00"
     for col, name in ((3, "model"), (4, "prototype")):
-        s = Series(Reference(ws, min_col=col, min_row=2, max_row=1 + n), x, title=name)
-        s.marker.symbol = "circle"
-        ch.series.append(s)
+        add_series(ch, ws, 1, col, 2, 1 + n, name, points=True)
     return ch
 
 
-def _friction_chart(ws, n: int, ng: int):
+def _friction_chart(ws, n: int, ng: int, header: int):
     fc = scatter_chart("ITTC-1957 friction line with model and ship points",
                        "Reynolds number [-]", "C_F [-]")
     fc.x_axis.scaling.logBase = 10
-    line = Series(Reference(ws, min_col=9, min_row=2, max_row=1 + ng),
-                  Reference(ws, min_col=8, min_row=2, max_row=1 + ng), title="ITTC-1957 line")
-    line.marker.symbol = "none"
-    fc.series.append(line)
+    fc.x_axis.number_format = "0E+00"
+    add_series(fc, ws, 1, 2, header + 1, header + ng, "ITTC-1957 line", colour="000000")
     for xcol, ycol, name, colour in ((3, 5, "model", "4472C4"), (4, 6, "ship", "C0504D")):
-        s = Series(Reference(ws, min_col=ycol, min_row=2, max_row=1 + n),
-                   Reference(ws, min_col=xcol, min_row=2, max_row=1 + n), title=name)
-        s.marker.symbol = "circle"
-        s.marker.size = 7
-        # points only: the markers need their own fill, or no line hides them as well
-        s.marker.graphicalProperties = GraphicalProperties(solidFill=colour)
-        s.marker.graphicalProperties.line.solidFill = colour
-        s.graphicalProperties.line.noFill = True
-        fc.series.append(s)
+        add_series(fc, ws, xcol, ycol, 2, 1 + n, name, points=True, colour=colour)
     return fc
 
 

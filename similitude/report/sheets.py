@@ -22,15 +22,22 @@ from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field
 
 import numpy as np
-from openpyxl.chart import ScatterChart
+from openpyxl.chart import Reference, ScatterChart, Series
+from openpyxl.chart.shapes import GraphicalProperties
 from openpyxl.styles import Alignment, Border, Font, PatternFill, Side
-from openpyxl.utils import get_column_letter
+from openpyxl.utils import column_index_from_string, get_column_letter
+from openpyxl.worksheet.pagebreak import Break
+
+from similitude.report.page import PAPER_SIZES, PageSetup
 
 # -- styles ---------------------------------------------------------------------------------
 # openpyxl copies a style into the workbook's own table when a cell is given it; these objects
 # are never changed, so every workbook can share them.
-BOLD = Font(bold=True)
-TITLE_FONT = Font(bold=True, size=14)
+#: The body font's family: set on bold and title cells too, or an application may render
+#: them in its own default (a serif) beside the body text.
+FONT_NAME = "Calibri"
+BOLD = Font(name=FONT_NAME, bold=True)
+TITLE_FONT = Font(name=FONT_NAME, bold=True, size=14)
 HEADER_FILL = PatternFill("solid", fgColor="DDEBF7")
 HEADER_BORDER = Border(bottom=Side(style="thin"))
 #: Yellow: a cell the user is meant to type into.
@@ -87,7 +94,7 @@ def value_format(header: str, value: float) -> str:
 def _quantity_format(header: str) -> str | None:
     """The format a column header's quantity fixes, or None."""
     h = header.lower()
-    if "reynolds" in h or "weber" in h or "c_f" in h or "[pa s]" in h or "[m^2/s]" in h:
+    if "reynolds" in h or "weber" in h or "[pa s]" in h or "[m^2/s]" in h:
         return "0.0000E+00"
     if h in ("run", "repeat", "speed index") or "runs needed" in h:
         return "0"
@@ -101,11 +108,14 @@ def _quantity_format(header: str) -> str | None:
 
 
 def _magnitude_format(m: float) -> str:
-    """About four significant digits for a magnitude ``m`` > 0; scientific when very large or
-    small."""
-    if m >= 1e6 or m < 1e-3:
+    """About four significant digits for a magnitude ``m`` > 0: fixed decimals (a coefficient
+    of 0.0003 as 0.0003000), thousands separated from 10^5 up, scientific only beyond
+    (below 1e-5, from 1e9)."""
+    if m >= 1e9 or m < 1e-5:
         return "0.0000E+00"
-    decimals = int(min(6, max(0, 3 - math.floor(math.log10(m)))))
+    if m >= 1e5:
+        return "#,##0"
+    decimals = int(min(8, max(0, 3 - math.floor(math.log10(m)))))
     return "0" if decimals == 0 else "0." + "0" * decimals
 
 
@@ -178,21 +188,57 @@ def table_range(first_row: int, columns: int, last_row: int) -> str:
     return f"A{first_row}:{get_column_letter(columns)}{last_row}"
 
 
-# -- widths, wrapped rows, printing ---------------------------------------------------------
+# -- widths and wrapped rows ---------------------------------------------------------------
 def fit_widths(ws, min_width: float = 8, max_width: float = MAX_WIDTH,
-               sample: int = 200) -> None:
-    """Column widths from the text of the first ``sample`` rows, within the bounds."""
+               sample: int = 200, rows: Iterable[int] | None = None) -> None:
+    """Column widths from what the first ``sample`` rows (or the given ``rows``) show, within
+    the bounds; titles (a font above the body size) spill over and do not count.
+
+    Numbers count as wide as their number format shows them; wrapped texts (headers) as their
+    longest word or a third of their length, whichever is more, so a long header takes up to
+    three lines instead of a wide column.
+    """
     widths: dict[int, float] = {}
-    for r, row in enumerate(ws.iter_rows()):
-        if r > sample:
-            break
-        for c in row:
-            if c.value is None:
-                continue
-            n = 11 if isinstance(c.value, float) else len(str(c.value)) + 2
-            widths[c.column] = max(widths.get(c.column, 0), n)
+    rows = range(1, min(ws.max_row, sample) + 1) if rows is None else rows
+    for r in rows:
+        for c in ws[r]:
+            if c.value is not None and not (c.font is not None and c.font.sz
+                                            and c.font.sz > BODY_FONT_SIZE):
+                widths[c.column] = max(widths.get(c.column, 0), shown_width(c))
     for j, w in widths.items():
         ws.column_dimensions[get_column_letter(j)].width = max(min_width, min(max_width, w))
+
+
+def shown_width(cell) -> float:
+    """Width [characters] a cell needs to show its value whole, padding included."""
+    v = cell.value
+    if isinstance(v, bool):
+        return 5
+    if isinstance(v, (int, float)):
+        return _number_width(float(v), cell.number_format) + 2
+    text = str(v)
+    if text.startswith("="):  # a formula: as wide as a formatted number
+        return _number_width(1.0, cell.number_format) + 2
+    if cell.alignment is not None and cell.alignment.wrap_text:
+        longest = max((len(w) for w in text.split()), default=0)
+        return max(longest, math.ceil(len(text) / 3)) + 2
+    return max(len(line) for line in text.split("\n")) + 2
+
+
+def _number_width(v: float, fmt: str) -> int:
+    """Characters the number format ``fmt`` shows ``v`` in (an estimate)."""
+    if "E" in fmt:
+        return len(fmt) + (v < 0)
+    if fmt in ("General", ""):
+        return min(len(repr(v)), 11)
+    if "%" in fmt:
+        v *= 100.0
+    main = fmt.split(";")[0].strip('"')
+    decimals = len(main.split(".")[1].rstrip("%")) if "." in main else 0
+    whole = len(f"{abs(v):.0f}")
+    if "," in main:
+        whole += (whole - 1) // 3
+    return whole + decimals + (decimals > 0) + (v < 0) + ("%" in fmt)
 
 
 def widen(ws, widths: dict[str, float]) -> None:
@@ -243,29 +289,319 @@ def wrap_rows(ws, rows: Iterable[int], columns: Sequence[int]) -> None:
         fit_row_height(ws, r)
 
 
-def print_setup(ws, title_row: int | None = None) -> None:
-    """Landscape, one page wide (as many pages long as needed), ``title_row`` on every page."""
-    ws.page_setup.orientation = "landscape"
-    ws.sheet_properties.pageSetUpPr.fitToPage = True
-    ws.page_setup.fitToWidth = 1
-    ws.page_setup.fitToHeight = 0
-    if title_row is not None:
-        ws.print_title_rows = f"{title_row}:{title_row}"
+# -- printing -------------------------------------------------------------------------------
+#: Body font of the sheets [pt] (the application's default) and the smallest size a printed
+#: page may show it at [pt]: the print scale never goes below their ratio.
+BODY_FONT_SIZE = 11.0
+SMALLEST_PRINTED_FONT = 8.0
+#: Lowest print scale [%]: 75 % of 11 pt prints at 8.25 pt.
+SMALLEST_SCALE = math.ceil(100.0 * SMALLEST_PRINTED_FONT / BODY_FONT_SIZE / 5.0) * 5
+#: Page margins [inch]: left/right, top/bottom, and the header and footer distances.
+MARGIN_SIDE, MARGIN_END, MARGIN_HEADER = 0.4, 0.75, 0.3
+_POINTS_PER_MM = 72.0 / 25.4
+
+
+def _header_text(text: str) -> str:
+    """Text for a page header or footer: ``&`` starts a code there, so it is doubled."""
+    return str(text).replace("&", "&&")
+
+
+def column_points(width: float | None) -> float:
+    """Printed width [pt] at 100 % of a column ``width`` characters wide (the default when
+    None): 7 px per character of the default font plus 5 px of padding, at 96 px per inch."""
+    w = DEFAULT_WIDTH if width is None else float(width)
+    return (7.0 * w + 5.0) * 0.75
+
+
+def content_points(ws) -> float:
+    """Printed width [pt] at 100 % of the used columns of ``ws`` and of its charts."""
+    def left_of(col: int) -> float:
+        return sum(column_points(ws.column_dimensions[get_column_letter(j)].width)
+                   for j in range(1, col))
+
+    width = left_of(ws.max_column + 1)
+    for chart in getattr(ws, "_charts", ()):
+        anchor = chart.anchor if isinstance(chart.anchor, str) else None
+        if anchor is not None:
+            col = column_index_from_string(re.match(r"[A-Z]+", anchor).group(0))
+            width = max(width, left_of(col) + chart.width * 10.0 * _POINTS_PER_MM)
+    return width
+
+
+def printable_points(paper: str, orientation: str) -> float:
+    """Width [pt] between the side margins of a sheet of ``paper`` in ``orientation``."""
+    _, short, long = PAPER_SIZES[paper]
+    across = short if orientation == "portrait" else long
+    return across * _POINTS_PER_MM - 2.0 * MARGIN_SIDE * 72.0
+
+
+def printable_height(paper: str, orientation: str) -> float:
+    """Height [pt] between the top and bottom margins of a sheet of ``paper``."""
+    _, short, long = PAPER_SIZES[paper]
+    along = long if orientation == "portrait" else short
+    return along * _POINTS_PER_MM - 2.0 * MARGIN_END * 72.0
+
+
+def _row_points(ws, row: int) -> float:
+    """Height [pt] of a row: its own, or :data:`LINE_HEIGHT` (a little more than the
+    applications' default, so a page is never thought longer than it is)."""
+    return ws.row_dimensions[row].height or LINE_HEIGHT
+
+
+def _keep_charts_whole(ws, page_height: float, titles: float) -> None:
+    """Page breaks before the charts that would otherwise be cut by the end of a page.
+
+    ``page_height``: printable height [pt] at 100 %; ``titles``: height of the rows repeated
+    at the top of every page after the first [pt].
+    """
+    charts = sorted((int(re.search(r"\d+", c.anchor).group(0)), c.height * 10.0 *
+                     _POINTS_PER_MM) for c in getattr(ws, "_charts", ())
+                    if isinstance(c.anchor, str))
+    if not charts:
+        return
+    page_top, y, row = 1, 0.0, 1  # first row of the page, height used on it so far
+    for top, height in charts:
+        while row < top:
+            y += _row_points(ws, row)
+            row += 1
+            if y > page_height:  # the application starts a new page at this row
+                page_top, y = row - 1, titles + _row_points(ws, row - 1)
+        if y + height > page_height and top > page_top:
+            ws.row_breaks.append(Break(id=top - 2))  # the blank row above the chart too
+            page_top, y = top, titles
+
+
+def print_setup(ws, page: PageSetup | None = None, title_rows: int | tuple[int, int] | None
+                = None, title_columns: str | None = None) -> None:
+    """Page setup of one sheet: paper, orientation, scale, repeated titles, header and footer.
+
+    Portrait when the columns fit across a portrait page, landscape otherwise; one page wide
+    when that keeps the body font at :data:`SMALLEST_PRINTED_FONT` or more, otherwise at
+    :data:`SMALLEST_SCALE` and as many pages wide as needed (``title_columns``, e.g. ``"A:A"``
+    for the run number, then repeat on each of them). ``title_rows`` (a row, or the first and
+    last row) repeat on every printed page. The page header names the case, the sheet and
+    "page x of y"; the footer the program, its version and the date printed.
+    """
+    page = page or PageSetup()
+    code, _, _ = PAPER_SIZES[page.paper]
+    ws.page_setup.paperSize = code
+    width = content_points(ws)
+    portrait = width <= printable_points(page.paper, "portrait")
+    ws.page_setup.orientation = "portrait" if portrait else "landscape"
+    fit = printable_points(page.paper, ws.page_setup.orientation) / max(width, 1.0)
+    if fit * 100.0 >= SMALLEST_SCALE:
+        ws.sheet_properties.pageSetUpPr.fitToPage = True
+        ws.page_setup.fitToWidth = 1
+        ws.page_setup.fitToHeight = 0
+        scale = min(1.0, fit)
+    else:
+        scale = SMALLEST_SCALE / 100.0
+        ws.sheet_properties.pageSetUpPr.fitToPage = False
+        ws.page_setup.scale = SMALLEST_SCALE
+        if title_columns:
+            ws.print_title_cols = title_columns
+    titles = 0.0
+    if title_rows is not None:
+        first, last = (title_rows, title_rows) if isinstance(title_rows, int) else title_rows
+        ws.print_title_rows = f"{first}:{last}"
+        titles = sum(_row_points(ws, r) for r in range(first, last + 1))
+    _keep_charts_whole(ws, printable_height(page.paper, ws.page_setup.orientation) / scale,
+                       titles)
+    m = ws.page_margins
+    m.left = m.right = MARGIN_SIDE
+    m.top = m.bottom = MARGIN_END
+    m.header = m.footer = MARGIN_HEADER
+    ws.oddHeader.left.text = _header_text(page.title)
+    ws.oddHeader.center.text = "&A"
+    ws.oddHeader.right.text = "page &P of &N"
+    ws.oddFooter.left.text = _header_text(page.program)
+    ws.oddFooter.right.text = "printed &D"
 
 
 # -- charts ---------------------------------------------------------------------------------
+#: Colours of chart series in order (RGB hex): blue, red, green, purple, orange, teal.
+SERIES_COLOURS = ("4472C4", "C0504D", "9BBB59", "8064A2", "F79646", "4BACC6")
+#: Chart size [cm]: fits across a portrait A4 or letter page at the smallest print scale.
+CHART_WIDTH, CHART_HEIGHT = 16.0, 9.0
+#: Rows a chart of :data:`CHART_HEIGHT` covers at the default row height (15 pt), plus one.
+CHART_ROWS = math.ceil(CHART_HEIGHT * 10.0 * 72.0 / 25.4 / LINE_HEIGHT) + 1
+
+
 def scatter_chart(title: str, x_title: str, y_title: str) -> ScatterChart:
-    """An empty scatter chart, 16 x 9 cm, with titled and visible axes."""
+    """An empty scatter chart, :data:`CHART_WIDTH` x :data:`CHART_HEIGHT` cm, with titled and
+    visible axes."""
     chart = ScatterChart()
     chart.title = title
     chart.style = 13
     chart.x_axis.title = x_title
     chart.y_axis.title = y_title
-    chart.height, chart.width = 9, 16
+    chart.height, chart.width = CHART_HEIGHT, CHART_WIDTH
+    chart.legend.position = "b"  # below the plot: the plot keeps the chart's whole width
     # openpyxl hides axes by default in recent versions; show them.
     chart.x_axis.delete = False
     chart.y_axis.delete = False
     return chart
+
+
+def add_series(chart, ws, x_col: int, y_col: int, first: int, last: int,
+               title: str | int | None = None, points: bool = False,
+               colour: str | None = None) -> Series:
+    """Add the series ``y_col`` against ``x_col`` (rows ``first``..``last``) to ``chart``.
+
+    ``title``: the series name, or the row of the cell holding it (e.g. the header row).
+    ``points``: measured points, drawn as filled circles without a line (a marker without its
+    own fill shows nothing when the line is off); otherwise a line without markers.
+    ``colour``: RGB hex; default the next of :data:`SERIES_COLOURS`.
+    """
+    if isinstance(title, int):
+        title = str(ws.cell(row=title, column=y_col).value)
+    s = Series(Reference(ws, min_col=y_col, min_row=first, max_row=last),
+               Reference(ws, min_col=x_col, min_row=first, max_row=last), title=title)
+    colour = colour or SERIES_COLOURS[len(chart.series) % len(SERIES_COLOURS)]
+    if points:
+        s.marker.symbol = "circle"
+        s.marker.size = 7
+        s.marker.graphicalProperties = GraphicalProperties(solidFill=colour)
+        s.marker.graphicalProperties.line.solidFill = colour
+        s.graphicalProperties.line.noFill = True
+    else:
+        s.marker.symbol = "none"
+        s.graphicalProperties.line.solidFill = colour
+        s.graphicalProperties.line.width = 22225  # 1.75 pt in EMU
+    s.smooth = False
+    chart.series.append(s)
+    return s
+
+
+def chart_below(ws, chart, last_row: int, gap: int = 2) -> int:
+    """Anchor ``chart`` in column A, ``gap`` rows below ``last_row``; returns the first free
+    row under it (charts sit below their tables, so a sheet prints at a readable width)."""
+    top = last_row + gap
+    ws.add_chart(chart, f"A{top}")
+    return top + CHART_ROWS
+
+
+# -- label-value pairs and audit formulas ---------------------------------------------------
+def write_pairs(ws, pairs: Iterable[tuple[str, object]], row: int = 1,
+                title: str | None = None) -> int:
+    """Labels in column A (bold) and their values in B, under an optional bold ``title``;
+    numbers formatted by their label's quantity and magnitude, lists joined with commas.
+
+    Returns
+    -------
+    int
+        The row after the block and one blank row.
+    """
+    if title:
+        ws.cell(row=row, column=1, value=title).font = TITLE_FONT
+        row += 1
+    for label, value in pairs:
+        if isinstance(value, (tuple, list)):
+            value = ", ".join(f"{v:g}" if isinstance(v, float) else str(v) for v in value)
+        ws.cell(row=row, column=1, value=str(label)).font = BOLD
+        c = ws.cell(row=row, column=2, value=cell_value(value))
+        if isinstance(c.value, bool):
+            c.number_format = BOOLEAN_FORMAT
+        elif isinstance(c.value, (int, float)):
+            c.number_format = value_format(str(label), c.value)
+        c.alignment = LEFT if not isinstance(c.value, str) else WRAP
+        row += 1
+    return row + 1
+
+
+#: Widest [characters] a merged text of label-value rows spreads over the columns of a table
+#: below it: less than a landscape page at the smallest print scale, so it prints whole.
+PAIR_TEXT_WIDTH = 100
+
+
+def fit_pairs(ws, first: int, last: int, last_column: int) -> None:
+    """Fit label-value rows ``first``..``last`` above a wider table: column A as wide as the
+    labels, column B as wide as the numbers, and each text value spread over columns B to
+    ``last_column`` at most (merged, wrapped, the row as high as its text; no wider than
+    :data:`PAIR_TEXT_WIDTH`) instead of widening column B for every row of the table."""
+    label_cells = [ws.cell(row=r, column=1) for r in range(first, last + 1)]
+    widen(ws, {"A": min(MAX_WIDTH, max((shown_width(c) for c in label_cells
+                                        if c.value is not None and (c.font.sz or 0)
+                                        <= BODY_FONT_SIZE), default=0))})
+    numbers = [shown_width(ws.cell(row=r, column=2)) for r in range(first, last + 1)
+               if isinstance(ws.cell(row=r, column=2).value, (int, float))]
+    widen(ws, {"B": max(numbers, default=0)})
+    end, span = 2, 0.0
+    for j in range(2, last_column + 1):
+        w = ws.column_dimensions[get_column_letter(j)].width or DEFAULT_WIDTH
+        if j > 2 and span + w > PAIR_TEXT_WIDTH:
+            break
+        end, span = j, span + w
+    for r in range(first, last + 1):
+        c = ws.cell(row=r, column=2)
+        if not isinstance(c.value, str) or (ws.cell(row=r, column=1).font.sz or 0
+                                            ) > BODY_FONT_SIZE:
+            continue
+        if end > 2:
+            ws.merge_cells(start_row=r, start_column=2, end_row=r, end_column=end)
+        c.alignment = WRAP
+        ws.cell(row=r, column=1).alignment = TOP
+        lines = wrapped_lines(c.value, span)
+        if lines > 1:
+            ws.row_dimensions[r].height = lines * LINE_HEIGHT
+
+
+def audit_formulas(ws, columns: Sequence[str], first: int, last: int,
+                   formulas: Sequence[tuple[str, str]],
+                   constants: Sequence[tuple[str, float]]) -> None:
+    """Spreadsheet formulas beside a written table, so a reader can audit a step in place.
+
+    Parameters
+    ----------
+    ws : worksheet
+    columns : sequence of str
+        Headers of the written table (column A onwards, header row ``first - 1``).
+    first, last : int
+        First and last data rows.
+    formulas : sequence of (header, template)
+        ``template`` uses ``{header}`` of a column of the same row, ``{$name}`` of a
+        constant and ``{@header}`` of an earlier formula column of the same row; the formula
+        columns take the number format of the table's last numeric column of the same name
+        pattern (scientific for coefficients, by :func:`number_format`).
+    constants : sequence of (name, value)
+        Written in a small block to the right and referenced absolutely.
+    """
+    letters = {name: get_column_letter(j + 1) for j, name in enumerate(columns)}
+    n = len(columns)
+    c_const = n + len(formulas) + 2
+    const_ref = {}
+    for r, (name, value) in enumerate(constants, start=first):
+        ws.cell(row=r, column=c_const, value=name).font = BOLD
+        c = ws.cell(row=r, column=c_const + 1, value=cell_value(value))
+        if isinstance(c.value, float):
+            c.number_format = value_format(name, c.value)
+        const_ref[name] = f"${get_column_letter(c_const + 1)}${r}"
+    own = {}
+    header_row(ws, first - 1, [h for h, _ in formulas], n + 1)
+    for k, (header, _) in enumerate(formulas):
+        own[header] = get_column_letter(n + 1 + k)
+    pattern = re.compile(r"\{([$@]?)([^{}]+)\}")
+    for r in range(first, last + 1):
+        def ref(m, r=r):
+            kind, name = m.group(1), m.group(2)
+            if kind == "$":
+                return const_ref[name]
+            if kind == "@":
+                return f"{own[name]}{r}"
+            return f"{letters[name]}{r}"
+
+        for k, (header, template) in enumerate(formulas):
+            c = ws.cell(row=r, column=n + 1 + k, value="=" + pattern.sub(ref, template))
+            c.number_format = _formula_format(header)
+
+
+def _formula_format(header: str) -> str:
+    """Number format of an audit-formula column: by its quantity, else four significant
+    digits of a coefficient (about 1e-3) or a power [kW] (about 1e3)."""
+    fmt = _quantity_format(header)
+    if fmt is not None:
+        return fmt
+    return "0.0" if "[kw]" in header.lower() else "0.000000"
 
 
 # -- long tables written as raw sheet XML --------------------------------------------------

@@ -13,6 +13,7 @@ import json
 import sys
 from pathlib import Path
 
+import openpyxl
 import pytest
 
 from similitude.cli import main
@@ -70,6 +71,22 @@ def test_force_replaces_an_existing_workbook(tmp_path, capsys):
     out.write_bytes(b"old")
     assert main(["plan", FERRY, "-o", str(out), "--force"]) == 0
     assert out.read_bytes()[:2] == b"PK"
+
+
+def test_paper_option_sets_up_the_workbook_for_letter_paper(tmp_path, capsys):
+    # paper size code 1 = Letter (ECMA-376 Part 1, 18.3.1.63 pageSetup; from memory)
+    out = tmp_path / "plan.xlsx"
+    assert main(["plan", FERRY, "-o", str(out), "--paper", "letter"]) == 0
+    wb = openpyxl.load_workbook(out)
+    assert {ws.page_setup.paperSize for ws in wb.worksheets} == {1}
+
+
+def test_an_unknown_paper_size_exits_2_naming_the_option_and_the_sizes(tmp_path, capsys):
+    out = tmp_path / "plan.xlsx"
+    assert main(["plan", FERRY, "-o", str(out), "--paper", "A3"]) == 2
+    err = capsys.readouterr().err
+    assert "--paper" in err and "'A3'" in err and "A4, letter" in err
+    assert not out.exists()
 
 
 def test_output_must_be_an_xlsx_path(tmp_path, capsys):

@@ -126,6 +126,13 @@ def test_integer_like_run_ids_match_the_plan(tmp_path):
     assert runs.run == ("1", "2")
 
 
+def test_runs_without_an_id_are_numbered_extra_runs_in_file_order(tmp_path):
+    p = _csv(tmp_path, "run,model speed [m/s],total resistance [N],water temperature [degC]\n"
+                       ",0.6,3,15\n1,1.0,10,15\n,0.7,4,15\n")
+    runs = read_resistance_runs(p, plan_runs=[1, 2])
+    assert runs.run == ("extra 1", "1", "extra 2")
+
+
 def test_header_without_unit_is_refused(tmp_path):
     p = _csv(tmp_path, "model speed,total resistance [N],water temperature [degC]\n1,10,15\n")
     with pytest.raises(InputError, match="'model speed' has no unit in its header"):

@@ -380,13 +380,41 @@ def test_basis_texts_wrap_in_rows_of_fitting_height(written):
         _assert_fits(ws, r, 2)
 
 
-def test_every_sheet_prints_landscape_one_page_wide_and_as_many_pages_long_as_needed(written):
+def test_every_sheet_prints_one_page_wide_or_at_a_readable_scale(written):
+    # 8 pt is the smallest printed size the workbook allows for its 11 pt body text
     _, wb = written
     for ws in wb.worksheets:
-        assert ws.page_setup.orientation == "landscape", ws.title
-        assert ws.sheet_properties.pageSetUpPr.fitToPage, ws.title
-        assert ws.page_setup.fitToWidth == 1, ws.title
-        assert ws.page_setup.fitToHeight == 0, ws.title
+        if ws.sheet_properties.pageSetUpPr.fitToPage:
+            assert (ws.page_setup.fitToWidth, ws.page_setup.fitToHeight) == (1, 0), ws.title
+            assert sheets.content_points(ws) * 0.75 <= sheets.printable_points(
+                "A4", ws.page_setup.orientation), ws.title
+        else:
+            assert ws.page_setup.scale * 11 / 100 >= 8, ws.title
+
+
+def test_every_sheet_is_set_up_for_a4_paper_by_default(written):
+    # paper size code 9 = A4 (ECMA-376 Part 1, 18.3.1.63 pageSetup paperSize; from memory)
+    _, wb = written
+    assert {ws.page_setup.paperSize for ws in wb.worksheets} == {9}
+
+
+def test_letter_paper_is_available(plan, tmp_path):
+    # paper size code 1 = Letter (ECMA-376 Part 1, 18.3.1.63; from memory)
+    path = plan_workbook.write_plan(plan, tmp_path / "letter.xlsx", paper="letter")
+    wb = openpyxl.load_workbook(path)
+    assert {ws.page_setup.paperSize for ws in wb.worksheets} == {1}
+
+
+def test_every_printed_page_names_case_sheet_page_program_and_date(written, plan):
+    # header/footer codes: &A sheet name, &P page, &N pages, &D date (ECMA-376 Part 1,
+    # 18.3.1.46 headerFooter; from memory)
+    _, wb = written
+    for ws in wb.worksheets:
+        assert ws.oddHeader.left.text == plan.case.name
+        assert ws.oddHeader.center.text == "&A"
+        assert ws.oddHeader.right.text == "page &P of &N"
+        assert ws.oddFooter.left.text.startswith("similitude ")
+        assert "&D" in ws.oddFooter.right.text
 
 
 @pytest.mark.parametrize("sheet, row", [("Runs", 1), ("Similarity", 1), ("Facility checks", 1),

@@ -3,6 +3,9 @@ write that is atomic (similitude.report.results_workbook)."""
 
 from __future__ import annotations
 
+import re
+import zipfile
+
 import numpy as np
 import openpyxl
 import pytest
@@ -117,3 +120,102 @@ def test_interrupted_overwrite_keeps_the_old_file(result, tmp_path, monkeypatch)
         results_workbook.write_results(old, result, overwrite=True)
     assert old.read_bytes() == b"the old results"
     assert list(tmp_path.iterdir()) == [old]
+
+
+# -- what a reader of the printed or opened workbook sees --------------------------------------
+@pytest.fixture(scope="module")
+def written(result, tmp_path_factory):
+    u = propagate(result, MeasurementUncertainty.from_quantities("2 mm/s", "0.5 %", "0.1 K"))
+    path = results_workbook.write_results(tmp_path_factory.mktemp("rw") / "r.xlsx", result, u)
+    return path, openpyxl.load_workbook(path)
+
+
+def _chart_series(path) -> list[str]:
+    with zipfile.ZipFile(path) as z:
+        xml = "".join(z.read(n).decode() for n in z.namelist()
+                      if n.startswith("xl/charts/chart"))
+    return re.findall(r"<ser>.*?</ser>", xml, re.S)
+
+
+def _title(series: str) -> str:
+    return re.search(r"<tx>(?:<strRef><f>[^<]*</f>)?.*?<v>([^<]*)</v>", series, re.S).group(1)
+
+
+def test_measured_series_are_drawn_as_filled_markers(written):
+    # a series without a line shows only its markers, and a marker shows only with a fill
+    path, _ = written
+    measured = [s for s in _chart_series(path) if _title(s) in ("measured",
+                                                                 "C_TM at 15 degC [-]")]
+    assert len(measured) == 2
+    for s in measured:
+        assert re.search(r"<spPr><a:ln><a:noFill", s)  # no line through the points
+        marker = re.search(r"<marker>.*?</marker>", s, re.S).group(0)
+        assert '<symbol val="circle"' in marker and "<a:solidFill>" in marker
+
+
+def test_the_prohaska_line_spans_only_the_fitted_froude_range(written, result):
+    # the fitted line is valid over the runs it was fitted to (ITTC 7.5-02-03-01.4 Rev 04,
+    # 2017, Prohaska's method): drawn from the smallest to the largest Fn^4/C_FM used
+    path, wb = written
+    (fit,) = [s for s in _chart_series(path) if _title(s).startswith("fit")]
+    ref = re.search(r"<xVal><numRef><f>'([^']+)'!\$(\w)\$(\d+):\$\w\$(\d+)</f>", fit)
+    sheet, col, first, last = ref.group(1), ref.group(2), int(ref.group(3)), int(ref.group(4))
+    xs = [wb[sheet][f"{col}{r}"].value for r in range(first, last + 1)]
+    pro = result.prohaska_frame()
+    used = pro[pro["used in fit"]]["Fn^4/C_FM [-]"]
+    assert min(xs) == pytest.approx(used.min(), rel=1e-12)
+    assert max(xs) == pytest.approx(used.max(), rel=1e-12)
+    assert max(xs) < pro["Fn^4/C_FM [-]"].max()  # the faster runs lie beyond the line
+
+
+def test_every_sheet_prints_with_paper_titles_and_page_header(written):
+    # codes &A sheet, &P page, &N pages, &D date (ECMA-376 Part 1, 18.3.1.46; from memory)
+    _, wb = written
+    for ws in wb.worksheets:
+        assert ws.page_setup.paperSize == 9, ws.title  # A4 (ECMA-376 18.3.1.63)
+        assert ws.oddHeader.left.text.endswith(SHIP.name), ws.title
+        assert ws.oddHeader.right.text == "page &P of &N"
+        assert ws.oddFooter.left.text.startswith("similitude ")
+        if ws.title != "Read me":
+            assert ws.print_title_rows, ws.title  # the table header on every page
+
+
+def _column(ws, header: str):
+    for row in ws.iter_rows():
+        for c in row:
+            if c.value == header:
+                return [ws.cell(row=r, column=c.column) for r in range(c.row + 1, ws.max_row + 1)
+                        if ws.cell(row=r, column=c.column).value is not None]
+    raise AssertionError(f"{header!r} not in {ws.title}")
+
+
+@pytest.mark.parametrize("header, fmt", [("ship speed [kn]", "0.00"), ("C_TS [-]", "0.000000"),
+                                         ("P_E [kW]", None), ("run", None)])
+def test_each_results_column_has_one_number_format(written, header, fmt):
+    _, wb = written
+    cells = _column(wb["Results"], header)
+    formats = {c.number_format for c in cells}
+    assert len(formats) == 1
+    if fmt is not None:
+        assert formats == {fmt}
+
+
+def test_the_form_factor_prints_with_four_significant_digits(written, result):
+    _, wb = written
+    ws = wb["Form factor"]
+    (row,) = [r for r in range(1, ws.max_row + 1) if ws.cell(row=r, column=1).value ==
+              "form factor k [-]"]
+    assert ws.cell(row=row, column=2).number_format == "0.0000"
+    assert ws.cell(row=row, column=2).value == pytest.approx(result.form_factor)
+
+
+def test_charts_sit_below_their_tables_in_column_a(written):
+    # beside a wide table a chart would widen the printed sheet and print small
+    _, wb = written
+    charts = [(ws.title, c) for ws in wb.worksheets for c in ws._charts]
+    assert len(charts) == 3  # Prohaska plot, coefficients, effective power
+    for title, chart in charts:
+        assert chart.anchor._from.col == 0, title
+        filled = max(c.row for row in wb[title].iter_rows() for c in row
+                     if c.value is not None)
+        assert chart.anchor._from.row + 1 > filled, title  # 0-based anchor row

@@ -1,0 +1,571 @@
+"""The admissible scale window of a case: every model scale the facility's hard limits allow.
+
+:func:`scale_window` evaluates the hard limits of :mod:`similitude.planning.limits` over the
+whole scale axis at once: a log-spaced grid of scales lambda = L_p / L_m [-], each crossed with
+the model-fluid states the facility can set (fluid, temperature, pressure; a further exact group
+solved through the fluid state as the solver does), in one vectorised evaluation per fluid. A
+scale is admissible when some state meets every limit. The first and last admissible grid
+scales are then narrowed by batched bracketing (both ends in one array evaluation a round) to
+:data:`END_TOLERANCE`; the returned ends are always admissible scales. The result names the
+limit that binds at each end: the one violated just beyond it. A case whose facility admits no
+scale gets the least-violating scale and its worst limit with the excess instead.
+
+For Froude-scaled models every hard limit is monotonic in the scale (speeds go as
+lambda^-1/2, lengths as lambda^-1, areas as lambda^-2, wave periods as lambda^-1/2 [1]_), so
+the admissible scales form one interval: larger models are bound by speed maxima, model-size,
+blockage, wall and depth limits, smaller ones by speed minima, model-size minima and the
+wavemaker's longest period. A campaign intersects the windows of the facilities a shared model
+visits (:mod:`similitude.planning.campaign`).
+
+:func:`model_at_scale` gives the model at one scale: the admissible fluid state with the least
+mismatch of the reported groups (the solver's tie-break), as a
+:class:`~similitude.planning.solution.Solution` with its facility checks, so run matrices and
+facility hours can be built for it without a search. ``ScaleWindow.largest`` is that model at
+the window's largest-model end.
+
+References
+----------
+.. [1] ITTC, Recommended Procedures and Guidelines 7.5-02-02-01, "Resistance Test", Rev 03,
+       2011 (model tests at corresponding Froude number).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from similitude.errors import InfeasibleError
+from similitude.planning.candidates import (
+    Candidates,
+    FluidOption,
+    Problem,
+    build_problem,
+    evaluate,
+    map_state,
+    mismatch,
+    model_state,
+    residuals,
+    scale_bounds,
+    violations,
+)
+from similitude.planning.case import Case
+from similitude.planning.checks import facility_checks
+from similitude.planning.findings import Check
+from similitude.planning.solution import Solution
+from similitude.planning.solver import _roots_along
+from similitude.units import format_scale
+
+#: Scales of the first grid over the search range (log-spaced).
+GRID_SCALES = 96
+#: Points per axis of the fluid state (temperature, pressure, free model speed) at each scale.
+STATE_POINTS = 3
+#: Scales per bracket and round when the window's ends are narrowed.
+NARROW_POINTS = 240
+#: Relative width to which the window's ends are narrowed [-]: two rounds from the grid. The
+#: ends returned are admissible; a campaign checks its chosen scale with model_at_scale.
+END_TOLERANCE = 1e-6
+#: A limit within this relative violation of zero is active (binding) [-].
+ACTIVE = 1e-7
+#: Largest scale searched when the facility states no smallest model [-]: the solver's range
+#: ends at 1/1000 of the facility length, which cuts off small models of small prototypes
+#: (a propeller in a long tank); the window looks on to this plausibility limit of a scale.
+SMALLEST_MODEL_SCALE = 1000.0
+
+
+# --------------------------------------------------------------------------------------------
+# Results
+# --------------------------------------------------------------------------------------------
+@dataclass(frozen=True)
+class ScalePoint:
+    """The model at one scale: its best fluid state, as a solution, with its checks.
+
+    Attributes
+    ----------
+    solution : Solution
+        Scale, velocity (and rotation) ratio, fluids and pressure of the model.
+    checks : tuple of Check
+        The facility checks of this model (:func:`similitude.planning.checks.facility_checks`).
+    admissible : bool
+        Every hard limit holds.
+    mismatch : float
+        Squared log-mismatch of the reported groups at the design speed [-].
+    candidate : Candidates
+        The model as a single candidate (for group values).
+    problem : Problem
+        The case in the solver's terms.
+    """
+
+    solution: Solution
+    checks: tuple[Check, ...]
+    admissible: bool
+    mismatch: float
+    candidate: Candidates
+    problem: Problem
+
+
+@dataclass(frozen=True)
+class ScaleWindow:
+    """The scales a facility admits for a case (lambda = L_p / L_m).
+
+    Attributes
+    ----------
+    case : Case
+        The case the window is for (its facility, prototype, request and runs).
+    feasible : bool
+        Some scale meets every hard limit.
+    low, high : float
+        Smallest and largest admissible lambda [-]: the largest and the smallest model; NaN
+        when not feasible.
+    low_limit, high_limit : str
+        The limit that binds at each end, in words with its value (what a larger model than
+        at ``low``, or a smaller one than at ``high``, would break); the edge of the search
+        range when no limit binds there.
+    search : tuple of float
+        (lowest, highest) lambda searched: the solver's range
+        (:func:`similitude.planning.candidates.scale_bounds`: the facility's model-size
+        limits, or its length), on to :data:`SMALLEST_MODEL_SCALE` when the facility states
+        no smallest model.
+    closest : float
+        Feasible: ``low``. Not feasible: the least-violating lambda [-].
+    excess : float
+        Relative violation of the worst limit at ``closest`` [-] (0 when feasible).
+    reason : str
+        Not feasible: the worst limit at the least-violating model and by how much it is
+        exceeded, with the other limits violated there; "" when feasible.
+    largest : ScalePoint or None
+        The model at ``low`` (None when not feasible).
+    scales, worst, mismatch : ndarray
+        The grid: lambda [-], the smallest worst relative violation of any state at each scale
+        (<= 0 admissible) and the least squared log-mismatch of the reported groups among the
+        admissible states there (NaN where none is admissible).
+    """
+
+    case: Case
+    feasible: bool
+    low: float
+    high: float
+    low_limit: str
+    high_limit: str
+    search: tuple[float, float]
+    closest: float
+    excess: float
+    reason: str
+    largest: ScalePoint | None
+    scales: np.ndarray
+    worst: np.ndarray
+    mismatch: np.ndarray
+
+    def contains(self, scale: float, rel: float = 1e-9) -> bool:
+        """True when ``scale`` lies inside the window (to ``rel`` relative)."""
+        return self.feasible and self.low * (1 - rel) <= scale <= self.high * (1 + rel)
+
+    def mismatch_at(self, scale) -> np.ndarray:
+        """Least squared log-mismatch of the reported groups at ``scale`` [-] inside the
+        window, interpolated in log(lambda) over the admissible grid scales (the largest
+        model's own value at ``low``; the nearest grid value between the last grid scale and
+        an end); NaN when not feasible."""
+        ok = np.isfinite(self.mismatch)
+        if not self.feasible:
+            return np.full(np.shape(scale), np.nan)
+        x, y = np.log(self.scales[ok]), self.mismatch[ok]
+        if self.largest is not None:
+            x, y = np.append(np.log(self.low), x), np.append(self.largest.mismatch, y)
+        order = np.argsort(x)
+        return np.interp(np.log(scale), x[order], y[order])
+
+    def text(self) -> str:
+        """The window in the trade's notation with its binding limits, in one line."""
+        if not self.feasible:
+            return f"no admissible scale: {self.reason}"
+        if self.high <= self.low * (1 + END_TOLERANCE):
+            return f"{format_scale(self.low)} only ({self.low_limit})"
+        return (f"{format_scale(self.low)} (largest model; {self.low_limit}) to "
+                f"{format_scale(self.high)} (smallest model; {self.high_limit})")
+
+
+# --------------------------------------------------------------------------------------------
+# The window
+# --------------------------------------------------------------------------------------------
+def scale_window(case: Case, problem: Problem | None = None,
+                 n_scales: int = GRID_SCALES) -> ScaleWindow:
+    """The admissible scale window of ``case`` in its facility, with the binding limits.
+
+    Parameters
+    ----------
+    case : Case
+        The case; a fixed scale or model length (``case.request``) gives a window of that one
+        scale, or none.
+    problem : Problem, optional
+        ``build_problem(case)`` when the caller has it.
+    n_scales : int
+        Scales of the first grid.
+
+    Returns
+    -------
+    ScaleWindow
+
+    Raises
+    ------
+    InputError
+        A request the facility cannot plan at all (from
+        :func:`similitude.planning.candidates.build_problem`).
+    """
+    prob = problem if problem is not None else build_problem(case)
+    states = _fluid_states(prob)
+    lo, hi = _search_range(case)
+    grid = np.geomspace(lo, hi, n_scales) if hi > lo * (1 + 1e-12) else np.array([lo])
+    sweep = _sweep(prob, states, grid)
+    if not (sweep.worst <= 0).any() and grid.size > 1:
+        sweep = _zoom(prob, states, sweep)
+    ok = sweep.worst <= 0
+    if not ok.any():
+        return _infeasible(prob, states, sweep, (lo, hi))
+    idx = np.flatnonzero(ok)
+    first, last = int(idx[0]), int(idx[-1])
+    brackets, ends = {}, {}
+    for key, inside, outside in (("low", first, first - 1), ("high", last, last + 1)):
+        if 0 <= outside < grid.size:
+            brackets[key] = _Bracket((sweep, inside), float(sweep.scales[outside]),
+                                     str(sweep.limit[outside]))
+        else:
+            ends[key] = _Bracket((sweep, inside), float(sweep.scales[inside]),
+                                 _edge_words(prob, sweep, inside, key))
+    ends.update(_narrow(prob, states, brackets))
+    low, high = ends["low"], ends["high"]
+    largest = _point(prob, states, *low.good)
+    return ScaleWindow(case, True, low.scale, high.scale, low.words, high.words, (lo, hi),
+                       low.scale, 0.0, "", largest, sweep.scales, sweep.worst, sweep.mismatch)
+
+
+def _search_range(case: Case) -> tuple[float, float]:
+    """The scales searched: the solver's range, on to SMALLEST_MODEL_SCALE when neither the
+    case nor the facility fixes the smallest model."""
+    lo, hi = scale_bounds(case)
+    req = case.request
+    if (case.facility.min_model_length is None and req.scale is None
+            and req.model_length is None):
+        hi = max(hi, SMALLEST_MODEL_SCALE)
+    return lo, hi
+
+
+def model_at_scale(case: Case, scale: float, problem: Problem | None = None) -> ScalePoint:
+    """The model of ``case`` at the scale ``scale`` [-]: the admissible fluid state with the
+    least mismatch of the reported groups (or the least-violating state when none is
+    admissible), with its facility checks.
+
+    Raises
+    ------
+    InfeasibleError
+        When no fluid state of the facility meets the exact groups at this scale.
+    """
+    prob = problem if problem is not None else build_problem(case)
+    states = _fluid_states(prob)
+    sweep = _sweep(prob, states, np.array([float(scale)]))
+    if sweep.option[0] < 0:
+        raise InfeasibleError(f"{case.facility.name}: no fluid state meets the exact groups "
+                              f"({', '.join(prob.exact)}) at {format_scale(scale)}")
+    return _point(prob, states, sweep, 0)
+
+
+# --------------------------------------------------------------------------------------------
+# Evaluating every fluid state at each of an array of scales
+# --------------------------------------------------------------------------------------------
+@dataclass(frozen=True)
+class _States:
+    """The fluid states searched at every scale for one fluid option: a grid of the free
+    variables (T, p and, when no exact group fixes it, V), with their properties evaluated
+    once; ``state`` is None when a residual exact group is solved through the state at each
+    scale instead (along ``solve_axis``)."""
+
+    option: FluidOption
+    T: np.ndarray
+    p: np.ndarray
+    V: np.ndarray
+    state: object
+    solve_axis: str | None
+
+
+@dataclass(frozen=True)
+class _Sweep:
+    """Per scale: the smallest worst violation over the fluid states and the limit broken most
+    there (in words), and the least mismatch among the admissible states; the state (fluid
+    option index, -1 for none; T, p, V) of the admissible state with the least mismatch, or of
+    the least-violating one where none is admissible."""
+
+    scales: np.ndarray
+    worst: np.ndarray
+    limit: np.ndarray  # object array of str
+    mismatch: np.ndarray
+    option: np.ndarray
+    T: np.ndarray
+    p: np.ndarray
+    V: np.ndarray
+
+
+#: The fields of a _Sweep, in order.
+_SWEEP_FIELDS = ("scales", "worst", "limit", "mismatch", "option", "T", "p", "V")
+
+
+def _solve_axis(prob: Problem, opt: FluidOption) -> str | None:
+    """The variable the residual exact group is solved through, as the solver prefers it
+    (pressure, temperature, model speed); None without a residual group, "lam" when only the
+    scale is left."""
+    if not prob.residual_groups:
+        return None
+    for k in ("p", "T", "V"):
+        if opt.axes[k].free and not (k == "V" and prob.speed_group is not None):
+            return k
+    return "lam"
+
+
+def _fluid_states(prob: Problem) -> tuple[_States, ...]:
+    """The state grid of every admissible fluid, with properties where they do not depend on
+    the scale (no residual group to solve through the state)."""
+    out = []
+    for opt in prob.options:
+        axes = [opt.axes[k].grid(STATE_POINTS) for k in ("T", "p")]
+        axes.append(np.array([np.nan]) if prob.speed_group is not None
+                    else opt.axes["V"].grid(STATE_POINTS))
+        T, p, V = (m.ravel() for m in np.meshgrid(*axes, indexing="ij"))
+        axis = _solve_axis(prob, opt)
+        state = model_state(opt.info, T, p, opt.spec) if axis is None else None
+        out.append(_States(opt, T, p, V, state, axis))
+    return tuple(out)
+
+
+def _candidates(prob: Problem, st: _States, scales: np.ndarray):
+    """(candidates, row of each candidate's scale, model speeds) of every state at every
+    scale; the residual exact group solved through its axis ((None, None, None): no root)."""
+    n, ns = scales.size, st.T.size
+    if st.solve_axis is None:
+        def rep(a):
+            if a is None:
+                return None
+            return np.repeat(np.broadcast_to(np.asarray(a, dtype=float), (ns,)), n)
+
+        state = map_state(st.state, rep, rep(st.state.temperature_si))
+        V = None if prob.speed_group is not None else rep(st.V)
+        c = evaluate(prob, st.option, rep(st.T), rep(st.p), np.tile(scales, ns), V,
+                     state=state)
+        return c, np.tile(np.arange(n), ns), rep(st.V)
+    base = {"T": np.repeat(st.T, n), "p": np.repeat(st.p, n), "V": np.repeat(st.V, n),
+            "lam": np.tile(scales, ns)}
+    base.pop(st.solve_axis)
+    pts, _ = _roots_along(prob, st.option, st.solve_axis, 32, base)
+    if pts is None:
+        return None, None, None
+    V = None if prob.speed_group is not None else pts["V"]
+    c = evaluate(prob, st.option, pts["T"], pts["p"], pts["lam"], V)
+    rows = np.clip(np.searchsorted(scales, pts["lam"]), 0, n - 1)
+    return c, rows, np.broadcast_to(np.asarray(pts["V"], dtype=float), rows.shape)
+
+
+def _worst(prob: Problem, c: Candidates):
+    """(worst relative violation per candidate, inf where the candidate is no model;
+    violation matrix; limits)."""
+    _, vmat, lims = violations(prob, c)
+    w = vmat.max(axis=0) if vmat.size else np.full(c.size, -1.0)
+    good = np.isfinite(c.velocity_ratio) & (c.velocity_ratio > 0)
+    if prob.residual_groups:
+        good &= np.all(np.abs(residuals(prob, c)) < 1e-6, axis=0)
+    return np.where(good, w, np.inf), vmat, lims
+
+
+def _sweep(prob: Problem, states: tuple[_States, ...], scales: np.ndarray) -> _Sweep:
+    """Evaluate every fluid state at each scale (one array call per fluid) and keep, per
+    scale, the least violation with its limit and the best state (see :class:`_Sweep`)."""
+    n = scales.size
+    out = {"scales": scales, "worst": np.full(n, np.inf), "limit": np.full(n, "", object),
+           "mismatch": np.full(n, np.inf), "option": np.full(n, -1),
+           "T": np.full(n, np.nan), "p": np.full(n, np.nan), "V": np.full(n, np.nan)}
+    rank = (np.full(n, 2), np.full(n, np.inf))  # (0 admissible / 1 not, mismatch / violation)
+    for i, st in enumerate(states):
+        c, rows, v = _candidates(prob, st, scales)
+        if c is None:
+            continue
+        w, vmat, lims = _worst(prob, c)
+        j = _argmin_by(rows, w)  # the least-violating state of each scale
+        s = rows[j]
+        better = w[j] < out["worst"][s]
+        s, j = s[better], j[better]
+        out["worst"][s] = w[j]
+        if vmat.size and j.size:
+            words = np.array([_limit_words(lim) for lim in lims], dtype=object)
+            out["limit"][s] = words[np.argmax(vmat[:, j], axis=0)]
+        m = mismatch(prob, c)
+        adm = w <= 0
+        r1, r2 = np.where(adm, 0, 1), np.where(adm, m, w)
+        j = _argmin_by(rows, r2, r1)  # the best state of each scale
+        s = rows[j]
+        better = (r1[j] < rank[0][s]) | ((r1[j] == rank[0][s]) & (r2[j] < rank[1][s]))
+        s, j = s[better], j[better]
+        rank[0][s], rank[1][s] = r1[j], r2[j]
+        out["option"][s] = i
+        out["T"][s], out["p"][s], out["V"][s] = c.temperature[j], c.pressure[j], v[j]
+        out["mismatch"][s] = np.where(adm[j], m[j], np.inf)
+    out["mismatch"][~np.isfinite(out["mismatch"])] = np.nan
+    return _Sweep(**out)
+
+
+def _argmin_by(groups: np.ndarray, values: np.ndarray, first_key=None) -> np.ndarray:
+    """Index of the smallest value of each group present (by ``first_key``, then ``values``,
+    when a first key is given)."""
+    keys = (values, groups) if first_key is None else (values, first_key, groups)
+    order = np.lexsort(keys)
+    g = groups[order]
+    first = np.ones(g.size, dtype=bool)
+    first[1:] = g[1:] != g[:-1]
+    return order[first]
+
+
+def _merge(a: _Sweep, b: _Sweep) -> _Sweep:
+    order = np.argsort(np.concatenate([a.scales, b.scales]), kind="stable")
+    return _Sweep(*(np.concatenate([getattr(a, f), getattr(b, f)])[order]
+                    for f in _SWEEP_FIELDS))
+
+
+def _evaluate_at(prob: Problem, states, sweep: _Sweep, i: int) -> Candidates:
+    """The state kept at scale ``i`` of a sweep as a single candidate."""
+    opt = states[int(sweep.option[i])].option
+    one = lambda a: np.array([float(a[i])])  # noqa: E731
+    return evaluate(prob, opt, one(sweep.T), one(sweep.p), one(sweep.scales),
+                    None if prob.speed_group is not None else one(sweep.V))
+
+
+def _point(prob: Problem, states, sweep: _Sweep, i: int) -> ScalePoint:
+    """The state kept at scale ``i`` of a sweep as a ScalePoint."""
+    opt = states[int(sweep.option[i])].option
+    c = _evaluate_at(prob, states, sweep, i)
+    lam, vr = float(c.scale[0]), float(c.velocity_ratio[0])
+    T, p = float(c.temperature[0]), float(c.pressure[0])
+    fac = prob.case.facility
+    sol = Solution(
+        scale=lam, velocity_ratio=vr, prototype_fluid=prob.proto.state,
+        model_fluid=model_state(opt.info, T, p, opt.spec, strict=True),
+        rotation_ratio=vr * lam if prob.proto.rotation is not None else None,
+        model_pressure=(float(c.reference_pressure[0]) if not fac.free_surface
+                        or fac.pressure_range is not None else None),
+        exact=tuple(prob.exact), binding="the scale window of the facility",
+        objective=prob.case.request.objective, fluid_name=opt.name, static_pressure=p)
+    return ScalePoint(sol, facility_checks(prob, c), bool(sweep.worst[i] <= 0),
+                      float(mismatch(prob, c)[0]), c, prob)
+
+
+# --------------------------------------------------------------------------------------------
+# The ends of the window, and the least-violating model when there is none
+# --------------------------------------------------------------------------------------------
+@dataclass
+class _Bracket:
+    """One end of the window while it is narrowed: the admissible side (sweep, index), the
+    inadmissible scale beyond it and the limit broken there."""
+
+    good: tuple
+    bad: float
+    words: str
+
+    @property
+    def scale(self) -> float:
+        sweep, i = self.good
+        return float(sweep.scales[i])
+
+
+def _limit_words(lim) -> str:
+    """A limit in words with its value, e.g. "blockage ratio A_X/(B_T h) (usual uncorrected
+    limit 0.005)"; without the value when it differs between models (a steady-run distance)."""
+    if np.ndim(lim.limit):
+        return f"{lim.name} ({lim.limit_words})"
+    unit = f" {lim.unit}" if lim.unit else ""
+    return f"{lim.name} ({lim.limit_words} {float(lim.limit):.4g}{unit})"
+
+
+def _edge_words(prob: Problem, sweep: _Sweep, i: int, side: str) -> str:
+    """What binds at the edge of the search range: a limit active there (the tightest limit of
+    the least-violating state, within ACTIVE of its value), else the range itself."""
+    if sweep.worst[i] > -ACTIVE and sweep.limit[i]:
+        return str(sweep.limit[i])
+    fac, req = prob.case.facility, prob.case.request
+    if req.scale is not None or req.model_length is not None:
+        return "fixed scale of the case"
+    if side == "low":
+        return ("facility's largest model" if fac.max_model_length is not None else
+                "largest model searched (as long as the facility)")
+    return ("facility's smallest model" if fac.min_model_length is not None else
+            f"smallest model searched ({format_scale(SMALLEST_MODEL_SCALE)})")
+
+
+def _narrow(prob: Problem, states, brackets: dict) -> dict:
+    """Narrow the ends of the window, each between its admissible and inadmissible scale,
+    NARROW_POINTS scales a bracket, both ends in one array evaluation a round, to
+    END_TOLERANCE relative. Returns {end: _Bracket} with the admissible end scale."""
+    out = {}
+    while brackets:
+        keys = list(brackets)
+        grids = []
+        for b in brackets.values():
+            a, z = sorted((b.scale, b.bad))
+            grids.append(np.geomspace(a, z, NARROW_POINTS + 2)[1:-1])
+        sub = _sweep(prob, states, np.concatenate(grids))
+        at = 0
+        for key, xs in zip(keys, grids, strict=True):
+            ok = sub.worst[at:at + xs.size] <= 0
+            b = brackets[key]
+            if key == "low":  # inadmissible below the first admissible scale
+                k = int(np.argmax(ok)) if ok.any() else xs.size
+                if k > 0:
+                    b.bad, b.words = float(xs[k - 1]), str(sub.limit[at + k - 1])
+                if k < xs.size:
+                    b.good = (sub, at + k)
+            else:  # admissible up to the first inadmissible scale
+                k = int(np.argmin(ok)) if not ok.all() else xs.size
+                if k > 0:
+                    b.good = (sub, at + k - 1)
+                if k < xs.size:
+                    b.bad, b.words = float(xs[k]), str(sub.limit[at + k])
+            at += xs.size
+            if abs(b.bad / b.scale - 1) <= END_TOLERANCE:
+                b.words = b.words or "no fluid state of the facility meets the exact groups"
+                out[key] = brackets.pop(key)
+    return out
+
+
+def _zoom(prob: Problem, states, sweep: _Sweep, rounds: int = 3) -> _Sweep:
+    """No admissible grid scale: look between the neighbours of the least-violating one, finer
+    each round (a window narrower than the grid spacing, or the least-violating model)."""
+    for _ in range(rounds):
+        i = int(np.argmin(sweep.worst))
+        a = sweep.scales[max(i - 1, 0)]
+        b = sweep.scales[min(i + 1, sweep.scales.size - 1)]
+        if not b > a:
+            break
+        sweep = _merge(sweep, _sweep(prob, states,
+                                     np.geomspace(a, b, NARROW_POINTS + 2)[1:-1]))
+        if (sweep.worst <= 0).any():
+            break
+    return sweep
+
+
+def _infeasible(prob: Problem, states, sweep: _Sweep, search) -> ScaleWindow:
+    i = int(np.argmin(sweep.worst))
+    lam = float(sweep.scales[i])
+    nan = float("nan")
+    if sweep.option[i] < 0 or not np.isfinite(sweep.worst[i]):
+        reason = ("no fluid state of the facility gives a model that meets the exact groups "
+                  f"({', '.join(prob.exact)})")
+        return ScaleWindow(prob.case, False, nan, nan, "", "", search, lam, math.inf, reason,
+                           None, sweep.scales, sweep.worst, sweep.mismatch)
+    _, vmat, lims = violations(prob, _evaluate_at(prob, states, sweep, i))
+    order = np.argsort(-vmat[:, 0])
+    where = (f"at the least-violating model ({format_scale(lam)}, L_m = "
+             f"{prob.case.prototype.length / lam:.4g} m)")
+    reason = lims[order[0]].describe(0, where)
+    others = [lims[j].name for j in order[1:] if vmat[j, 0] > 1e-9]
+    if others:
+        reason += "; also violated there: " + ", ".join(dict.fromkeys(others))
+    return ScaleWindow(prob.case, False, nan, nan, "", "", search, lam,
+                       float(sweep.worst[i]), reason, None, sweep.scales, sweep.worst,
+                       sweep.mismatch)
+
+
+__all__ = ["END_TOLERANCE", "ScalePoint", "ScaleWindow", "model_at_scale", "scale_window"]

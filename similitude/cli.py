@@ -14,7 +14,7 @@ import sys
 from similitude.commands.common import CAUTION
 from similitude.errors import BAD_INPUT_ERRORS, InputError
 
-COMMANDS = ("plan", "props", "groups", "balance", "extrapolate")
+COMMANDS = ("plan", "campaign", "props", "groups", "balance", "extrapolate")
 
 
 def commands_to_load(argv: list[str]) -> tuple[str, ...]:
@@ -60,7 +60,9 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return int(args.func(args) or 0)
     except BAD_INPUT_ERRORS as exc:
-        problems = exc.problems if isinstance(exc, InputError) else [str(exc)]
+        # an infeasible campaign says why on several lines
+        problems = exc.problems if isinstance(exc, InputError) else (
+            str(exc).splitlines() or [str(exc)])
         for line in problems:
             print(f"error: {line}", file=sys.stderr)
         return 2

@@ -246,8 +246,8 @@ def plan_campaign(campaign: Campaign) -> CampaignPlan:
     kinds = sorted({p.case.facility.kind for p in plans.values()})
     caution = " ".join(dict.fromkeys(plan_caution(k) for k in kinds))
     notes = list(booking.notes) + [
-        "a shared model is built to the largest scale every chosen facility admits, rounded "
-        "to a convenient scale inside the shared window (common practice); a test with a "
+        "a shared model is built as large as every chosen facility admits, rounded to a "
+        "convenient scale inside the shared window (common practice); a test with a "
         "model of its own is planned as a case on its own",
         f"combinations of facilities are ranked by {OBJECTIVE_WORDS[campaign.objective]} on "
         "each candidate's own figures; the best are planned at their shared scale and ranked "
@@ -335,7 +335,7 @@ def _combinations(choices, labels) -> pd.DataFrame:
                 "bound by (smallest)": _by(comb.high_by, comb.high_by.window.high_limit),
                 "scale": format_scale(comb.scale),
                 "facility hours [h]": comb.total_hours,
-                "mismatch [-]": comb.mismatch,
+                "reported-group mismatch, sum of ln(ratio)^2 [-]": comb.mismatch,
                 "combinations searched": ch.searched,
             })
     return pd.DataFrame(rows)
@@ -400,8 +400,9 @@ def _shared_reason(ch: GroupChoice, c: CandidateFacility, objective: str) -> str
     """Why ``c`` in a shared group: what the best combination with another facility for this
     test would give instead."""
     comb = ch.chosen
-    alone = (f" (alone it admits models up to {format_scale(c.low, 5)}, bound by "
-             f"{c.window.low_limit})")
+    length = c.test.case.prototype.length / c.low
+    alone = (f" (alone it would take a model as large as {format_scale(c.low, 5)}, "
+             f"{length:.3g} m, bound by the {c.window.low_limit})")
     alt = next((a for a in ch.ranked[1:] if any(
         x.test.name == c.test.name and x.facility != c.facility for x in a.candidates)), None)
     if alt is None:

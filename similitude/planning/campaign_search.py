@@ -495,10 +495,11 @@ def _no_overlap_lines(group: ScaleGroup, lists, idx, low_m, high_m) -> list[str]
     lines = [
         f"models {group.label()}: the scale windows of the facilities do not overlap, so "
         f"{what} cannot serve every test",
-        f"  {a.test.name!r} in {a.label()} admits models up to {format_scale(a.low, 6)} "
-        f"(a larger model breaks the {a.window.low_limit}), but {b.test.name!r} in "
-        f"{b.label()} admits models down to {format_scale(b.high, 6)} only (a smaller "
-        f"model breaks the {b.window.high_limit})",
+        f"  {a.test.name!r} in {a.label()} takes models as large as "
+        f"{format_scale(a.low, 6)} at most (a larger one breaks the {a.window.low_limit}), "
+        f"but {b.test.name!r} in {b.label()} takes models as small as "
+        f"{format_scale(b.high, 6)} at least (a smaller one breaks the "
+        f"{b.window.high_limit})",
     ]
     if group.fixed_scale is not None:
         lines[1] = (f"  the existing model is {format_scale(group.fixed_scale, 6)}; " +

@@ -560,7 +560,7 @@ def _infeasible(prob: Problem, states, sweep: _Sweep, search) -> ScaleWindow:
     where = (f"at the least-violating model ({format_scale(lam)}, L_m = "
              f"{prob.case.prototype.length / lam:.4g} m)")
     reason = lims[order[0]].describe(0, where)
-    others = [lims[j].name for j in order[1:] if vmat[j, 0] > 1e-9]
+    others = [_limit_words(lims[j]) for j in order[1:] if vmat[j, 0] > 1e-9]
     if others:
         reason += "; also violated there: " + ", ".join(dict.fromkeys(others))
     return ScaleWindow(prob.case, False, nan, nan, "", "", search, lam,

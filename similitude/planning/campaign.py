@@ -201,29 +201,77 @@ def campaign_problems(c: Campaign) -> list[str]:
                        + ("> 0" if key == "working_day" else ">= 0"))
     if not c.tests:
         out.append("test: none given; expected at least one [[test]]")
-    out += _duplicates("model", [m.name for m in c.models])
-    out += _duplicates("test", [t.name for t in c.tests])
     for i, m in enumerate(c.models):
         if m.scale is not None and m.model_length is not None:
             out.append(f"model[{i}]: scale and length both given; expected one of them")
-    known = {m.name for m in c.models}
+    out += naming_problems([(t.name, t.kind, t.models) for t in c.tests],
+                           [m.name for m in c.models])
     for i, t in enumerate(c.tests):
-        out += _test_problems(i, t, known)
-    out += _sharing_problems(c)
+        out += _test_problems(i, t)
+    out += _length_problems(c)
     return out
 
 
-def _duplicates(what: str, names: list[str]) -> list[str]:
+def naming_problems(tests, models) -> list[str]:
+    """Problems of the names alone: names used twice, unknown models, more models than the
+    test's kind uses, models shared by tests of other roles.
+
+    Parameters
+    ----------
+    tests : sequence of (name, kind, model names)
+        Each test as written (an entry may be None where the test could not be read, so the
+        others keep their positions).
+    models : sequence of str
+        The names of the named models.
+    """
+    out = _duplicates("model", list(models))
+    out += _duplicates("test", [t[0] if t else None for t in tests])
+    known = {m for m in models if m is not None}
+    roles: dict[str, tuple[str, str]] = {}
+    for i, entry in enumerate(tests):
+        if not entry or entry[1] not in MODEL_ROLES:
+            continue
+        name, kind, names = entry
+        out += _model_count_problem(i, kind, names)
+        for k, model in enumerate(names):
+            if model not in known:
+                out.append(f"test[{i}].model: {model!r} is not a model of the campaign; "
+                           "expected " + ("one of " + ", ".join(sorted(map(repr, known)))
+                                          if known else "a [[model]] of that name"))
+                continue
+            role = MODEL_ROLES[kind] if k == 0 else "propeller"
+            first_role, first_test = roles.setdefault(model, (role, name))
+            if role != first_role:
+                out.append(
+                    f"test[{i}].model: {model!r} is a {first_role} model (used by test "
+                    f"{first_test!r}); a {kind.replace('_', '-')} test "
+                    + (f"needs a {role} model" if k == 0 else
+                       "names the propeller fitted to the hull second")
+                    + "; expected a model of its own or another named model")
+    return out
+
+
+def _duplicates(what: str, names: list) -> list[str]:
     seen, out = set(), []
     for i, name in enumerate(names):
-        if name in seen:
+        if name is not None and name in seen:
             out.append(f"{what}[{i}].name: {name!r} is used twice; expected each {what} to "
                        "have its own name")
         seen.add(name)
     return out
 
 
-def _test_problems(i: int, t: CampaignTest, known: set[str]) -> list[str]:
+def _model_count_problem(i: int, kind: str, names) -> list[str]:
+    roles = 2 if kind == "self_propulsion" else 1
+    if len(names) <= roles:
+        return []
+    return [f"test[{i}].model: {list(names)!r} names {len(names)} models; a "
+            f"{kind.replace('_', '-')} test uses "
+            + ("a hull model and the propeller fitted to it" if roles == 2 else "one model")]
+
+
+def _test_problems(i: int, t: CampaignTest) -> list[str]:
+    """The test's facilities and prototype against its kind."""
     out = []
     if not t.facilities:
         out.append(f"test[{i}].facility: none given; expected a facility file or a list of "
@@ -232,19 +280,6 @@ def _test_problems(i: int, t: CampaignTest, known: set[str]) -> list[str]:
         wrong = facility_kind_problem(t.kind, fac.kind, label)
         if wrong:
             out.append(f"test[{i}].facilities[{k}]: {wrong}")
-    for name in t.models:
-        if name not in known:
-            out.append(f"test[{i}].model: {name!r} is not a model of the campaign; expected "
-                       + ("one of " + ", ".join(sorted(map(repr, known))) if known else
-                          "a [[model]] of that name"))
-    roles = [MODEL_ROLES[t.kind]]
-    if t.kind == "self_propulsion":
-        roles.append("propeller")
-    if len(t.models) > len(roles):
-        out.append(f"test[{i}].model: {list(t.models)!r} names {len(t.models)} models; a "
-                   f"{t.kind.replace('_', '-')} test uses "
-                   + ("a hull model and the propeller fitted to it" if len(roles) == 2
-                      else "one model"))
     role = MODEL_ROLES[t.kind]
     kind = t.case.prototype.kind
     if kind not in ROLE_PROTOTYPES[role]:
@@ -265,41 +300,19 @@ def facility_kind_problem(test_kind: str, facility_kind: str, label: str) -> str
             f"{' or a '.join(a.replace('_', ' ') for a in allowed)}")
 
 
-def model_roles(c: Campaign) -> dict[str, tuple[str, str]]:
-    """Role of each named model, with the first test that gives it: {model: (role, test)}."""
-    roles: dict[str, tuple[str, str]] = {}
-    for t in c.tests:
-        for k, name in enumerate(t.models):
-            role = MODEL_ROLES[t.kind] if k == 0 else "propeller"
-            roles.setdefault(name, (role, t.name))
-    return roles
-
-
-def _sharing_problems(c: Campaign) -> list[str]:
-    """A model is used only by tests of its role, and represents one prototype length."""
+def _length_problems(c: Campaign) -> list[str]:
+    """The tests whose main model is one named model describe one prototype length."""
     out = []
-    roles = model_roles(c)
     lengths: dict[str, tuple[float, str]] = {}
     for i, t in enumerate(c.tests):
-        for k, name in enumerate(t.models):
-            role = MODEL_ROLES[t.kind] if k == 0 else "propeller"
-            first_role, first_test = roles[name]
-            if role != first_role:
-                out.append(
-                    f"test[{i}].model: {name!r} is a {first_role} model (used by test "
-                    f"{first_test!r}); a {t.kind.replace('_', '-')} test "
-                    + (f"needs a {role} model" if k == 0 else
-                       "names the propeller fitted to the hull second")
-                    + "; expected a model of its own or another named model")
-                continue
-            if k == 0:
-                length = t.case.prototype.length
-                seen = lengths.setdefault(name, (length, t.name))
-                if abs(seen[0] - length) > 1e-9 * seen[0]:
-                    out.append(
-                        f"test[{i}].prototype.length: {length:g} m, but test {seen[1]!r} "
-                        f"uses model {name!r} for a {seen[0]:g} m prototype; expected the "
-                        "tests sharing a model to describe the same prototype length")
+        if not t.models:
+            continue
+        name, length = t.models[0], t.case.prototype.length
+        seen = lengths.setdefault(name, (length, t.name))
+        if abs(seen[0] - length) > 1e-9 * seen[0]:
+            out.append(f"test[{i}].prototype.length: {length:g} m, but test {seen[1]!r} uses "
+                       f"model {name!r} for a {seen[0]:g} m prototype; expected the tests "
+                       "sharing a model to describe the same prototype length")
     return out
 
 
@@ -315,5 +328,5 @@ __all__ = [
     "CampaignTest",
     "campaign_problems",
     "facility_kind_problem",
-    "model_roles",
+    "naming_problems",
 ]

@@ -395,7 +395,7 @@ def choose_facilities(group: ScaleGroup, candidates: dict[str, tuple[CandidateFa
     for t in group.tests:
         ok = [c for c in candidates[t.name] if c.feasible]
         if not ok:
-            raise InfeasibleError("\n".join(_no_facility_lines(t, candidates[t.name])))
+            raise InfeasibleError("\n".join(_no_facility_lines(group, t, candidates[t.name])))
         lists.append(ok)
     lists = _pruned(lists, objective)
     sizes = [len(c) for c in lists]
@@ -477,9 +477,11 @@ def _exact(group: ScaleGroup, cands, lows, highs) -> Combination | None:
 # --------------------------------------------------------------------------------------------
 # Refusals
 # --------------------------------------------------------------------------------------------
-def _no_facility_lines(test: CampaignTest, cands) -> list[str]:
-    lines = [f"test {test.name!r} ({test.kind.replace('_', '-')}): no candidate facility can "
-             "take it"]
+def _no_facility_lines(group: ScaleGroup, test: CampaignTest, cands) -> list[str]:
+    what = "no candidate facility can take it"
+    if group.fixed_scale is not None:
+        what = f"the existing model ({format_scale(group.fixed_scale, 6)}) fits no candidate"
+    lines = [f"test {test.name!r} ({test.kind.replace('_', '-')}): {what}"]
     lines += [f"  {c.label()}: {c.why_not}" for c in cands]
     return lines
 

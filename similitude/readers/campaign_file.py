@@ -42,6 +42,7 @@ from similitude.planning.campaign import (
     CampaignModel,
     CampaignTest,
     facility_kind_problem,
+    naming_problems,
 )
 from similitude.planning.case import TEST_KINDS
 from similitude.planning.facilities import Facility
@@ -136,11 +137,14 @@ def parse_campaign(mapping: Any, base_dir: str | Path = ".", name: str = "campai
         base = {}
     models, model_protos = _read_models(r, doc.get("model", []))
     facilities = _FacilityFiles(r, Path(base_dir))
-    tests = []
+    tests, names = [], []
     for i, raw in enumerate(r.tables(doc.get("test", []), "test")):
-        t = _read_test(r, raw, i, base, model_protos, facilities, Path(base_dir), about)
+        name, t = _read_test(r, raw, i, base, model_protos, facilities, Path(base_dir), about)
+        names.append(name)
         if t is not None:
             tests.append(t)
+    # names, models and sharing of every test, also of those that did not read
+    r.problems.extend(naming_problems(names, [m.name for m in models]))
     r.finish()
     try:
         return Campaign(tuple(tests), tuple(models), name=about.get("title", name),
@@ -224,13 +228,16 @@ class _FacilityFiles:
             except InputError as exc:
                 self.read[key] = None
                 for line in exc.problems:
-                    self.r.problem(path, line.replace(f"facility file {str(file)!r}",
-                                                      f"facility file {rel!r}"))
+                    # named as written in the campaign file, not by its full path
+                    rest = line.split("': ", 1)[1] if line.startswith("facility file '") \
+                        else line
+                    self.r.problem(path, f"facility file {rel!r}: {rest}")
         return self.read[key]
 
 
 def _read_test(r: FieldReader, raw: Any, i: int, base: Mapping, model_protos: dict,
-               facilities: _FacilityFiles, base_dir: Path, about: dict) -> CampaignTest | None:
+               facilities: _FacilityFiles, base_dir: Path, about: dict):
+    """((name, kind, models) as written or None, the test or None when it has a problem)."""
     path = f"test[{i}]"
     t = r.table(raw, path, TEST_KEYS, required=("name", "kind"))
     name = r.text(t, "name", path)
@@ -243,13 +250,14 @@ def _read_test(r: FieldReader, raw: Any, i: int, base: Mapping, model_protos: di
         r.problem(f"{path}.prototype", f"{show(override)} is not a table; expected "
                   f"[{path}.prototype] with the keys that differ from [prototype]")
         override = {}
-    if name is None or kind is None or not loaded or any(f is None for _, f in loaded):
-        return None
+    spec = (name, kind, models) if name is not None and kind is not None else None
+    if spec is None or not loaded or any(f is None for _, f in loaded):
+        return spec, None
     usable = [(rel, f) for rel, f in loaded if not facility_kind_problem(kind, f.kind, rel)]
     if not usable:
         for (rel, f), (_, where) in zip(loaded, files, strict=True):
             r.problem(where, facility_kind_problem(kind, f.kind, rel))
-        return None
+        return spec, None
     model_i, model_over = model_protos.get(models[0], (None, {})) if models else (None, {})
     proto = _merged(_merged(base, model_over), override)
     doc = {"test": kind, "prototype": proto, "facility": usable[0][0],
@@ -262,9 +270,9 @@ def _read_test(r: FieldReader, raw: Any, i: int, base: Mapping, model_protos: di
             line = _attributed(line, path, override, model_i, model_over)
             if line not in r.problems:
                 r.problems.append(line)
-        return None
-    return CampaignTest(name, case, tuple(f for _, f in loaded),
-                        tuple(rel for rel, _ in loaded), models)
+        return spec, None
+    return spec, CampaignTest(name, case, tuple(f for _, f in loaded),
+                              tuple(rel for rel, _ in loaded), models)
 
 
 def _model_names(r: FieldReader, t: Mapping, path: str) -> tuple[str, ...]:

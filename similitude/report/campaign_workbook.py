@@ -22,6 +22,7 @@ from openpyxl import Workbook
 from openpyxl.styles import Font
 from openpyxl.utils import get_column_letter
 from openpyxl.workbook.properties import CalcProperties
+from openpyxl.worksheet.hyperlink import Hyperlink
 
 from similitude.planning.campaign_plan import OBJECTIVE_WORDS, CampaignPlan
 from similitude.report.atomic import check_target, write_atomic
@@ -148,7 +149,7 @@ def _links(ws, after: int, result: CampaignPlan) -> None:
     n = len(result.bookings)
     for i in range(n):
         cell = ws.cell(row=after - 1 - n + i, column=1)
-        cell.hyperlink = f"#'{cell.value} Overview'!A1"
+        cell.hyperlink = Hyperlink(ref=cell.coordinate, location=f"'{cell.value} Overview'!A1")
         cell.font = LINK_FONT
 
 

@@ -14,7 +14,13 @@ from dataclasses import replace
 from pathlib import Path
 
 from similitude.cautions import caution_line
-from similitude.commands.common import check_targets, json_text, print_written, workbook_path
+from similitude.commands.common import (
+    add_paper_option,
+    check_targets,
+    json_text,
+    print_written,
+    workbook_path,
+)
 from similitude.planning.campaign import CAMPAIGN_OBJECTIVES
 from similitude.planning.campaign_plan import CampaignPlan, plan_campaign
 from similitude.readers.campaign_file import load_campaign
@@ -39,6 +45,7 @@ def add_parser(sub) -> argparse.ArgumentParser:
     p.add_argument("--choose", choices=CAMPAIGN_OBJECTIVES,
                    help="how to choose the facilities (default: the campaign file's "
                    "[campaign] choose, else largest_model)")
+    add_paper_option(p)
     p.set_defaults(func=run)
     return p
 
@@ -57,7 +64,8 @@ def run(args) -> int:
         # The workbook writer loads openpyxl (a heavy library): imported only for -o.
         from similitude.report.campaign_workbook import write_campaign
 
-        written.append(write_campaign(result, args.output, overwrite=args.force))
+        written.append(write_campaign(result, args.output, overwrite=args.force,
+                                      paper=args.paper))
     if json_out is not None:
         print(json_out)
     else:

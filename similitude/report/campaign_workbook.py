@@ -26,6 +26,7 @@ from openpyxl.worksheet.hyperlink import Hyperlink
 
 from similitude.planning.campaign_plan import OBJECTIVE_WORDS, CampaignPlan
 from similitude.report.atomic import check_target, write_atomic
+from similitude.report.page import PageSetup
 from similitude.report.plan_workbook import STATUS_FILLS, add_plan_sheets
 from similitude.report.sheets import (
     BOLD,
@@ -60,21 +61,24 @@ COMBINATION_WIDTHS = (22, 6, 8, 46, 12, 42, 12, 40, 8, 10, 12, 12)
 LINK_FONT = Font(color="0563C1", underline="single")
 
 
-def build_workbook(result: CampaignPlan):
-    """The openpyxl Workbook of a campaign and its long tables (rows not yet written)."""
+def build_workbook(result: CampaignPlan, paper: str = "A4"):
+    """The openpyxl Workbook of a campaign and its long tables (rows not yet written);
+    ``paper`` is the paper size its sheets are set up to print on ("A4" or "letter")."""
     wb = Workbook()
     wb.remove(wb.active)
-    _summary_sheet(wb, result)
-    _ranking_sheet(wb, result)
-    _combinations_sheet(wb, result)
+    page = PageSetup(title=result.campaign.name, paper=paper)
+    _summary_sheet(wb, result, page)
+    _ranking_sheet(wb, result, page)
+    _combinations_sheet(wb, result, page)
     tables = []
     for _, row in result.bookings.iterrows():
-        tables += add_plan_sheets(wb, result.plans[row["test"]], f"{row['label']} ")
+        tables += add_plan_sheets(wb, result.plans[row["test"]], f"{row['label']} ", paper)
     wb.calculation = CalcProperties(fullCalcOnLoad=True)
     return wb, tables
 
 
-def write_campaign(result: CampaignPlan, path, overwrite: bool = False) -> pathlib.Path:
+def write_campaign(result: CampaignPlan, path, overwrite: bool = False,
+                   paper: str = "A4") -> pathlib.Path:
     """Write the campaign workbook of ``result`` to ``path`` (.xlsx), atomically.
 
     Parameters
@@ -84,6 +88,8 @@ def write_campaign(result: CampaignPlan, path, overwrite: bool = False) -> pathl
         Target file; its directory must exist.
     overwrite : bool
         Replace an existing file. Without it an existing file is never touched.
+    paper : str
+        Paper size the sheets are set up to print on ("A4" or "letter").
 
     Returns
     -------
@@ -97,7 +103,7 @@ def write_campaign(result: CampaignPlan, path, overwrite: bool = False) -> pathl
     """
     target = pathlib.Path(path).expanduser()
     check_target(target, overwrite)  # fail before the work
-    wb, tables = build_workbook(result)
+    wb, tables = build_workbook(result, paper)
 
     def writer(tmp: pathlib.Path) -> None:
         wb.save(tmp)
@@ -107,7 +113,7 @@ def write_campaign(result: CampaignPlan, path, overwrite: bool = False) -> pathl
 
 
 # -- Campaign (summary) ---------------------------------------------------------------------
-def _summary_sheet(wb, result: CampaignPlan) -> None:
+def _summary_sheet(wb, result: CampaignPlan, page: PageSetup) -> None:
     ws = wb.create_sheet(SUMMARY_SHEET)
     set_widths(ws, _lettered(SUMMARY_WIDTHS))
     c = result.campaign
@@ -131,7 +137,7 @@ def _summary_sheet(wb, result: CampaignPlan) -> None:
     r = _long_text(ws, r + 1, "why these facilities and scales", list(result.reasons))
     _long_text(ws, r + 1, "notes", list(result.notes))
     ws.freeze_panes = "A2"
-    print_setup(ws)
+    print_setup(ws, page)
 
 
 def _table(ws, r: int, title: str, frame) -> int:
@@ -183,7 +189,7 @@ def _column_formats(ws, frame, first: int, last: int) -> None:
 
 
 # -- Facility ranking, combinations ---------------------------------------------------------
-def _ranking_sheet(wb, result: CampaignPlan) -> None:
+def _ranking_sheet(wb, result: CampaignPlan, page: PageSetup) -> None:
     ws = wb.create_sheet(RANKING_SHEET)
     ws.cell(row=1, column=1, value="Candidate facilities of each test, ranked by "
             f"{OBJECTIVE_WORDS[result.objective]}").font = TITLE_FONT
@@ -211,10 +217,10 @@ def _ranking_sheet(wb, result: CampaignPlan) -> None:
     set_widths(ws, _lettered(RANKING_WIDTHS))
     wrap_rows(ws, rows, range(1, len(RANKING_COLUMNS) + 1))
     ws.freeze_panes = "A4"
-    print_setup(ws)
+    print_setup(ws, page)
 
 
-def _combinations_sheet(wb, result: CampaignPlan) -> None:
+def _combinations_sheet(wb, result: CampaignPlan, page: PageSetup) -> None:
     ws = wb.create_sheet(COMBINATIONS_SHEET)
     ws.cell(row=1, column=1, value="Combinations of facilities for models built to one scale, "
             "at their shared scale (best first; the first is chosen)").font = TITLE_FONT
@@ -228,7 +234,7 @@ def _combinations_sheet(wb, result: CampaignPlan) -> None:
     set_widths(ws, _lettered(COMBINATION_WIDTHS))
     wrap_rows(ws, range(3, last + 1), range(1, len(df.columns) + 1))
     ws.freeze_panes = "A4"
-    print_setup(ws, 3)
+    print_setup(ws, page, 3)
 
 
 __all__ = ["COMBINATIONS_SHEET", "RANKING_SHEET", "SUMMARY_SHEET", "build_workbook",

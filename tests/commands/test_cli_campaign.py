@@ -31,7 +31,7 @@ def test_demo_campaign_plans_and_writes_its_workbook(written):
 
 def test_summary_names_models_bookings_and_the_binding_basin(written):
     text = written[0].stdout
-    assert "model 'hull'" in text and "1:19" in text
+    assert "model 'hull'" in text and "1:20" in text
     assert "T4  seakeeping" in text and "West seakeeping basin (invented)" in text
     assert "bound by seakeeping in West seakeeping basin (invented)" in text
 

@@ -4,7 +4,9 @@ with windows, binding limits and rankings derived by hand in each test.
 Outside references:
 * Froude scaling: V_m = V_p / sqrt(lambda), T_m = T_p / sqrt(lambda), H_m = H_p / lambda
   (ITTC Recommended Procedures 7.5-02-02-01, 2011, and 7.5-02-07-02.1, 2014).
-* Largest of 1000 Rayleigh-distributed wave heights 1.8585 H_s (Longuet-Higgins 1952).
+* Most probable highest of N Rayleigh-distributed waves H_s sqrt(ln N / 2) (Longuet-Higgins
+  1952), N = D / T_z; the ITTC (Bretschneider) spectrum has T_z / T_p = (4 / (5 pi))^(1/4)
+  (ITTC 1978 two-parameter spectrum; its zeroth and second moments).
 * Reynolds number Re = V L / nu (ITTC Symbols and Terminology, 2017); with Froude scaling the
   prototype/model ratio is (nu_m / nu_p) lambda^1.5. Water viscosities: IAPWS R12-08 through
   fluids_props (itself checked against IAPWS's tables in tests/fluids_props).
@@ -28,8 +30,11 @@ from similitude.planning.case import Case, MatrixSpec, WaveCondition
 
 # The ship of scenarios.py: L = 150 m, speeds 6, 8, 10 m/s, A_X = 190 m^2, B = 24 m, T = 8 m.
 A_X = 190.0
-LARGEST_WAVE = math.sqrt(math.log(1000.0) / 2.0)  # 1.8585 (Longuet-Higgins 1952)
-SEA = WaveCondition("irregular", significant_height=6.0, peak_period=11.0, name="sea")
+# A 3 h ITTC sea of T_p = 11 s: T_z = 0.7104 x 11 = 7.815 s, N = 10800 / 7.815 = 1382 waves,
+# H_max = H_s sqrt(ln 1382 / 2) = 1.9015 H_s
+LARGEST_WAVE = math.sqrt(math.log(10800.0 / (11.0 * (4 / (5 * math.pi)) ** 0.25)) / 2.0)
+SEA = WaveCondition("irregular", significant_height=6.0, peak_period=11.0, name="sea",
+                    spectrum="ittc", duration=10800.0)
 
 
 def _blockage_scale(width: float, depth: float) -> float:
@@ -65,7 +70,7 @@ def bound_by_basin():
 def test_shared_hull_is_bound_by_the_basins_highest_wave(bound_by_basin):
     comb = bound_by_basin.choices[0].chosen
     # tank alone: blockage lambda >= sqrt(190 / (0.005 x 8 x 4)) = 34.46
-    # basin alone: 1.8585 x 6 m / lambda <= 0.25 m  ->  lambda >= 44.60, the larger: binding
+    # basin alone: 1.9015 x 6 m / lambda <= 0.25 m  ->  lambda >= 45.64, the larger: binding
     assert comb.candidates[0].low == pytest.approx(_blockage_scale(8.0, 4.0), rel=2e-6)
     assert comb.low == pytest.approx(LARGEST_WAVE * 6.0 / 0.25, rel=2e-6)
     assert comb.low_by.test.name == "seakeeping"
@@ -73,16 +78,16 @@ def test_shared_hull_is_bound_by_the_basins_highest_wave(bound_by_basin):
 
 
 def test_shared_hull_is_built_to_the_next_convenient_scale_in_both_facilities(bound_by_basin):
-    # 44.60 rounded up to the next whole number (common practice): 1:45, in both plans
-    assert bound_by_basin.choices[0].chosen.scale == 45.0
-    assert {p.scale for p in bound_by_basin.plans.values()} == {45.0}
-    assert bound_by_basin.models.loc[0, "scale"] == "1:45"
-    assert bound_by_basin.models.loc[0, "model length [m]"] == pytest.approx(150.0 / 45.0)
+    # 45.64 rounded up to the next whole number (common practice): 1:46, in both plans
+    assert bound_by_basin.choices[0].chosen.scale == 46.0
+    assert {p.scale for p in bound_by_basin.plans.values()} == {46.0}
+    assert bound_by_basin.models.loc[0, "scale"] == "1:46"
+    assert bound_by_basin.models.loc[0, "model length [m]"] == pytest.approx(150.0 / 46.0)
 
 
 def test_reason_names_the_basin_and_its_limit(bound_by_basin):
     text = bound_by_basin.reasons[0]
-    assert "basin (invented)" in text and "highest wave" in text and "1:45" in text
+    assert "basin (invented)" in text and "highest wave" in text and "1:46" in text
 
 
 # -- a facility infeasible for one test but best for another --------------------------------
@@ -124,7 +129,7 @@ def test_windows_that_do_not_overlap_are_refused_with_both_limits_named():
     slow = _basin(name="slow basin (invented)", speed_range=(1.0, 6.0),
                   wavemaker_max_height=0.5)
     # narrow tank: blockage lambda >= sqrt(190/(0.005 x 4 x 3)) = 56.27 (a model no larger);
-    # slow basin: 1.8585 x 6/lambda <= 0.5 m -> lambda >= 22.3, and the carriage minimum
+    # slow basin: 1.9015 x 6/lambda <= 0.5 m -> lambda >= 22.8, and the carriage minimum
     # 6/sqrt(lambda) >= 1.0 m/s  ->  lambda <= 36 (a model no smaller)
     with pytest.raises(InfeasibleError) as err:
         plan_campaign(_hull_campaign([narrow], [slow]))

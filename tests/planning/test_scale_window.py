@@ -4,8 +4,9 @@ hand from the limits' own formulas.
 Outside references:
 * Froude scaling: V_m = V_p / sqrt(lambda), T_m = T_p / sqrt(lambda), H_m = H_p / lambda
   (ITTC Recommended Procedure 7.5-02-02-01, 2011; 7.5-02-07-02.1, 2014).
-* Largest wave of 1000 Rayleigh-distributed waves: H_s sqrt(ln 1000 / 2) = 1.8585 H_s
-  (Longuet-Higgins, J. Marine Research 11, 1952).
+* Most probable highest of N Rayleigh-distributed waves: H_s sqrt(ln N / 2) (Longuet-Higgins,
+  J. Marine Research 11, 1952), N = D / T_z; T_z / T_p = (4 / (5 pi))^(1/4) for the ITTC
+  two-parameter spectrum (ITTC 1978).
 * Blockage A_X/(B_T h) <= 0.005 and the Kelvin-wedge width 2 tan(19.47 deg) = 0.7071 L are the
   planner's limits (common practice; Kelvin 1887).
 """
@@ -60,14 +61,17 @@ def test_model_just_larger_than_the_window_breaks_a_limit_and_the_end_does_not()
 
 
 def test_largest_model_is_bound_by_the_wavemaker_in_a_basin():
-    # Irregular sea H_s = 6 m: 1.8585 x 6 / lambda <= 0.25 m  ->  lambda >= 44.6, larger than
-    # the blockage limit of the 40 m x 4 m basin (sqrt(190 / (0.005 x 160)) = 15.4).
+    # 3 h ITTC sea, H_s = 6 m, T_p = 11 s: T_z = 7.815 s, N = 1382, H_max = 1.9015 H_s;
+    # 1.9015 x 6 / lambda <= 0.25 m  ->  lambda >= 45.6, larger than the blockage limit of the
+    # 40 m x 4 m basin (sqrt(190 / (0.005 x 160)) = 15.4).
     basin = tank(kind="wave_basin", name="basin B", width=40.0, wavemaker_period_range=(0.5, 3.0),
                  wavemaker_max_height=0.25)
-    sea = WaveCondition("irregular", significant_height=6.0, peak_period=11.0)
+    sea = WaveCondition("irregular", significant_height=6.0, peak_period=11.0, spectrum="ittc",
+                        duration=10800.0)
     case = Case(ship(), basin, matrix=MatrixSpec(waves=(sea,)))
     w = scale_window(case)
-    assert w.low == pytest.approx(math.sqrt(math.log(1000) / 2) * 6.0 / 0.25, rel=2e-6)
+    n = 10800.0 / (11.0 * (4 / (5 * math.pi)) ** 0.25)
+    assert w.low == pytest.approx(math.sqrt(math.log(n) / 2) * 6.0 / 0.25, rel=2e-6)
     assert "highest wave" in w.low_limit
 
 
@@ -97,8 +101,18 @@ def test_facility_that_admits_no_scale_names_the_worst_limit_and_its_excess():
 
 def test_fixed_scale_gives_a_window_of_that_scale_or_none():
     inside = replace(_case(), request=MatchRequest(scale=40.0))
-    outside = replace(_case(), request=MatchRequest(scale=30.0))  # blockage 0.0264/.. > 0.005
+    # carriage maximum: 10 / sqrt(2) = 7.07 m/s > 6 m/s, a hard limit
+    outside = replace(_case(), request=MatchRequest(scale=2.0))
     w = scale_window(inside)
     assert w.feasible and w.low == w.high == 40.0
     assert not scale_window(outside).feasible
-    assert "blockage" in scale_window(outside).reason
+    assert "carriage maximum" in scale_window(outside).reason
+
+
+def test_existing_model_over_a_soft_limit_is_admitted():
+    # 1:30: blockage 190/900/32 = 0.0066 > 0.005, a soft limit: an existing model gets a warning
+    # with the correction, not a refusal (the planner's rule for fixed models)
+    w = scale_window(replace(_case(), request=MatchRequest(scale=30.0)))
+    assert w.feasible and w.low == 30.0
+    blockage = next(c for c in w.largest.checks if c.name.startswith("blockage"))
+    assert blockage.status == "warning"

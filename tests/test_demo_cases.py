@@ -19,7 +19,8 @@ from similitude.cli import main
 from similitude.readers.case_file import load_case, load_facility
 
 DEMO = Path(__file__).parents[1] / "demo_cases"
-CASES = ("ferry_resistance", "offshore_seakeeping", "propeller_cavitation", "wing_wind_tunnel")
+CASES = ("ferry_resistance", "ferry_self_propulsion", "offshore_seakeeping", "propeller_cavitation",
+         "wing_wind_tunnel")
 KN = 1852.0 / 3600.0
 
 

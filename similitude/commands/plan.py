@@ -165,6 +165,7 @@ def summary(plan: Plan) -> str:
              f"{_fmt(plan.model_length)} m, prototype {_fmt(case.prototype.length)} m)",
              f"  model fluid     {_fluid_text(plan.model_fluid)}"]
     lines += _speed_lines(plan.speeds)
+    lines += _propulsion_lines(plan)
     lines += _group_lines(plan.groups)
     if plan.binding_constraint:
         lines.append(f"  binding         {plan.binding_constraint}")
@@ -206,6 +207,26 @@ def _speed_lines(speeds) -> list[str]:
     for c in speeds.columns:
         if "[1/s]" in c and "model" in c:
             lines.append(f"  {c:<15} " + ", ".join(_fmt(v) for v in speeds[c]))
+    return lines
+
+
+def _propulsion_lines(plan: Plan) -> list[str]:
+    """A self-propulsion plan's tow force per speed and the expected propeller figures."""
+    sp = plan.propulsion
+    if sp is None:
+        return []
+    t = sp.speeds
+    lines = ["  tow force F_D   " + "; ".join(
+        f"{kn:.4g} kn {fd:.3g} N" for kn, fd in zip(t["prototype speed [kn]"],
+                                                    t["skin-friction correction F_D [N]"],
+                                                    strict=True))
+        + f" (k = {sp.form_factor:.3f})"]
+    if "expected rotation rate [1/s]" in t:
+        n = t["expected rotation rate [1/s]"]
+        lines.append(f"  expected n      {_fmt(n.min())} to {_fmt(n.max())} 1/s ("
+                     f"{_fmt(60 * n.min())} to {_fmt(60 * n.max())} rpm); thrust up to "
+                     f"{_fmt(t['expected thrust [N]'].max())} N, torque up to "
+                     f"{_fmt(t['expected torque [N m]'].max())} N m")
     return lines
 
 

@@ -15,6 +15,7 @@ from similitude.correlations.friction import FRICTION_LINES
 from similitude.correlations.waves import SPECTRA
 from similitude.errors import InputError
 from similitude.planning.facilities import Facility
+from similitude.planning.propulsion_spec import PropulsionSpec
 
 PROTOTYPE_KINDS = (
     "surface_ship",
@@ -465,6 +466,9 @@ class Case:
     test : str
         The kind of test, one of :data:`TEST_KINDS`; "" (default) reads it from the prototype
         and facility kinds (:func:`default_test`).
+    propulsion : PropulsionSpec or None
+        The self-propulsion test's inputs (propeller, open water, resistance estimate,
+        expected propulsion factors, tow forces); used when ``test`` is ``"self_propulsion"``.
     """
 
     prototype: Prototype
@@ -474,6 +478,7 @@ class Case:
     metadata: dict = field(default_factory=dict)
     name: str = "case"
     test: str = ""
+    propulsion: PropulsionSpec | None = None
 
     def __post_init__(self) -> None:
         test = self.test or default_test(self.prototype.kind, self.facility.kind)

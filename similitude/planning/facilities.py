@@ -57,6 +57,10 @@ class Facility:
         Shortest steady-speed measuring time the facility requires per run [s]; when given,
         the steady-run length after acceleration and stopping becomes a hard limit of the
         planner; None: checked against a common-practice 10 s as a warning only.
+    max_thrust : float or None
+        Largest thrust the propeller dynamometer measures [N] (self-propulsion tests).
+    max_torque : float or None
+        Largest torque the propeller dynamometer measures [N m] (self-propulsion tests).
     """
 
     kind: str
@@ -77,6 +81,8 @@ class Facility:
     min_model_length: float | None = None
     max_model_length: float | None = None
     min_steady_time: float | None = None
+    max_thrust: float | None = None
+    max_torque: float | None = None
 
     def __post_init__(self) -> None:
         if self.kind not in FACILITY_KINDS:
@@ -100,7 +106,8 @@ class Facility:
                     "0 <= min <= max and max > 0"
                 )
         for key in ("acceleration", "deceleration", "wavemaker_max_height", "max_rotation_rate",
-                    "min_model_length", "max_model_length", "min_steady_time"):
+                    "min_model_length", "max_model_length", "min_steady_time", "max_thrust",
+                    "max_torque"):
             v = getattr(self, key)
             if v is not None and not (isinstance(v, (int, float)) and math.isfinite(v)
                                       and v > 0):

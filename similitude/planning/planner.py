@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import html
 from dataclasses import asdict, dataclass, replace
+from typing import TYPE_CHECKING
 
 import numpy as np
 import pandas as pd
@@ -58,6 +59,9 @@ from similitude.planning.matrix import build_matrix, runs_needed, runs_text
 from similitude.planning.solution import Solution
 from similitude.planning.solver import DEFAULT_CANDIDATES, solve
 from similitude.units import format_scale
+
+if TYPE_CHECKING:  # the annotation only; the module loads with a self-propulsion plan
+    from similitude.planning.self_propulsion import SelfPropulsionPlan
 
 
 @dataclass(frozen=True)
@@ -113,6 +117,11 @@ class Plan:
     binding_constraint : str
         What fixed the scale, in words (e.g. the blockage limit, and the rounding to a
         convenient scale).
+    propulsion : SelfPropulsionPlan or None
+        For a self-propulsion test: per speed the skin-friction correction force F_D and the
+        expected propeller rotation rate, thrust and torque, with the form of F_D, the
+        propulsion factors used and their sources (the run matrix carries the same columns
+        per run); None for other tests.
     """
 
     case: Case
@@ -130,6 +139,7 @@ class Plan:
     matrix: object
     notes: tuple[str, ...] = ()
     binding_constraint: str = ""
+    propulsion: SelfPropulsionPlan | None = None
 
     @property
     def requested_not_matched(self) -> tuple[dict, ...]:
@@ -239,6 +249,13 @@ class Plan:
             "conditions": len(self.matrix),
             "runs_needed": runs_needed(self.matrix),
             "notes": list(self.notes),
+            "self_propulsion": None if self.propulsion is None else {
+                "friction_correction": self.propulsion.friction_correction,
+                "form_factor": self.propulsion.form_factor,
+                "form_factor_source": self.propulsion.form_factor_source,
+                "propulsion_factors": self.propulsion.factors_source,
+                "speeds": frame(self.propulsion.speeds),
+            },
         }
 
     # -- display -----------------------------------------------------------------------------
@@ -429,14 +446,27 @@ def plan(case: Case, n_candidates: int | None = None) -> Plan:
     groups = _groups_table(prob, c, keys, case.request.exact)
     conflicts = find_conflicts(prob, c, [k for k in keys if k not in sol.exact])
     checks = facility_checks(prob, c)
+    matrix = build_matrix(case, sol)
+    propulsion = None
+    if case.test == "self_propulsion":
+        # Imported here: it loads the after-test stage (the resistance extrapolation), which
+        # no other kind of plan needs at start-up (tests/commands/test_cli_frame.py).
+        from similitude.planning.self_propulsion import plan_self_propulsion
+
+        propulsion = plan_self_propulsion(case, sol, matrix)
+        matrix = propulsion.runs
+        checks = checks + propulsion.checks
     notes = list(_notes(case, sol, checks))
     notes.extend(blockage_notes(prob, c))
+    if propulsion is not None:
+        notes.extend(propulsion.notes)
     return Plan(
         case=case, solution=sol, scale=lam, model_length=proto.length / lam,
         model_dimensions=dims, prototype_fluid=sol.prototype_fluid,
         model_fluid=sol.model_fluid, speeds=_speeds_table(case, sol), groups=groups,
         conflicts=conflicts, checks=checks, scale_factors=_scale_factors(case, sol),
-        matrix=build_matrix(case, sol), notes=tuple(notes), binding_constraint=sol.binding,
+        matrix=matrix, notes=tuple(notes), binding_constraint=sol.binding,
+        propulsion=propulsion,
     )
 
 

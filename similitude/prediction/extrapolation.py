@@ -530,9 +530,21 @@ def _standard_temperature_si(v_m, ctm, cfm, k: float, ship: ShipParticulars,
             "rtm15": rtm15, "cr": cr}
 
 
-def _ship_si(v_m, cr, k: float, ship: ShipParticulars,
-             options: ExtrapolationOptions) -> dict[str, Any]:
-    """The ship at the model's Froude number: allowances, C_TS, R_TS and P_E."""
+def ship_si(v_m, cr, k, ship: ShipParticulars, options: ExtrapolationOptions) -> dict[str, Any]:
+    """The ship at the model's Froude number: allowances, C_TS, R_TS and P_E (SI arrays by
+    name).
+
+    Parameters
+    ----------
+    v_m : array_like
+        Model speed [m/s] (the ship's is V_M sqrt(lambda)).
+    cr : array_like
+        Residuary coefficient C_R at the same Froude number [-].
+    k : float or array_like
+        Form factor [-] (an array broadcasting against ``v_m`` for a batch of samples).
+    ship : ShipParticulars
+    options : ExtrapolationOptions
+    """
     line = options.friction_line
     v_s = v_m * np.sqrt(ship.scale)
     rho_s, nu_s = _water_si(ship.water_temperature, ship.salinity)
@@ -609,7 +621,7 @@ def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
         "temperature": t_m, "rho_m": rho_m, "nu_m": nu_m, "blockage_ratio": blockage_ratio,
         "depth_froude": depth_froude, "dvv": dvv, "model_speed": v_m, "froude": fn,
         "re_m": re_m, "ctm": ctm, "cfm": cfm, "k": k, "fit": fit, **standard,
-        **_ship_si(v_m, standard["cr"], k, ship, options),
+        **ship_si(v_m, standard["cr"], k, ship, options),
     }
 
 
@@ -762,4 +774,5 @@ __all__ = [
     "case_scale",
     "extrapolate",
     "pipeline_si",
+    "ship_si",
 ]

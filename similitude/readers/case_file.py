@@ -36,8 +36,9 @@ from typing import Any
 from fluids_props import get_fluid, list_fluids
 from similitude.constants import P_ATM
 from similitude.correlations.friction import FRICTION_LINES
+from similitude.correlations.propulsion import FRICTION_CORRECTION_FORMS
 from similitude.correlations.waves import SPECTRA
-from similitude.errors import InputError
+from similitude.errors import BAD_INPUT_ERRORS, InputError
 from similitude.planning.case import (
     MATCHABLE_GROUPS,
     OBJECTIVES,
@@ -55,22 +56,27 @@ from similitude.planning.case import (
     WaveCondition,
 )
 from similitude.planning.facilities import FACILITY_KINDS, Facility
+from similitude.planning.propulsion_spec import PropulsionSpec
 from similitude.readers.fields import (
     ACCEL,
     AREA,
+    FORCE,
     LENGTH,
     MISSING,
+    POWER,
     PRESSURE,
     RATE,
     RATIO,
     SPEED,
     TEMPERATURE,
     TIME,
+    TORQUE,
     VOLUME,
     FieldReader,
     key_path,
     show,
 )
+from similitude.readers.measured import read_open_water_runs, read_resistance_runs
 from similitude.units import UnitInputError, parse_scale
 
 __all__ = ["load_case", "load_facility", "parse_case", "parse_facility", "CASE_KEYS"]
@@ -98,6 +104,13 @@ _LIMITS = {
     "trim": (-50.0, 50.0),                     # m
     "displacement": (1e-9, 1e7),               # m^3
     "temperature": (1.0, 2000.0),              # K; the fluid's own range is checked after
+    "dynamometer_force": (0.0, 1e5),           # N
+    "dynamometer_torque": (0.0, 1e4),          # N m
+    "propeller_diameter": (1e-3, 30.0),        # m
+    "polynomial": (-10.0, 10.0),               # coefficients of K_T(J), K_Q(J)
+    "tow_force_factor": (-3.0, 5.0),           # multiples of F_D
+    "ship_resistance": (0.0, 1e9),             # N
+    "ship_power": (0.0, 1e10),                 # W
 }
 
 #: Further prototype sizes [prototype.sizes] and their dimension.
@@ -116,7 +129,8 @@ PROTOTYPE_KEYS = ("kind", "name", "length", "speeds", "rotation_rates", "water_d
 FACILITY_KEYS = ("file", "kind", "name", "length", "width", "depth", "height", "speed_limits",
                  "fluids", "temperature_limits", "pressure_limits", "acceleration", "braking",
                  "open_jet", "wave_periods", "highest_wave", "fastest_rotation",
-                 "shortest_model", "longest_model", "shortest_steady_time")
+                 "shortest_model", "longest_model", "shortest_steady_time", "largest_thrust",
+                 "largest_torque")
 MATCHING_KEYS = ("exact", "report", "scale", "model_length", "choose", "friction_line",
                  "form_factor", "model_fluid", "round_scale", "relax")
 RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_between_runs",
@@ -124,7 +138,12 @@ RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_betw
 LOADING_KEYS = ("name", "draught", "trim", "displacement")
 WAVE_KEYS = ("name", "kind", "period", "length_ratio", "height", "steepness",
              "significant_height", "peak_period", "spectrum", "gamma", "duration")
-TOP_KEYS = ("about", "test", "prototype", "facility", "matching", "runs")
+PROPULSION_KEYS = ("propeller_diameter", "propellers", "open_water", "thrust_polynomial",
+                   "torque_polynomial", "resistance_test", "resistance_estimate",
+                   "wake_fraction", "thrust_deduction", "rotative_efficiency", "form_factor",
+                   "tow_force_factors", "friction_correction")
+RESISTANCE_ESTIMATE_KEYS = ("speeds", "total_resistance", "effective_power")
+TOP_KEYS = ("about", "test", "prototype", "facility", "matching", "runs", "propulsion")
 
 #: Every key of a case file by table, for documentation and "did you mean" hints.
 CASE_KEYS: dict[str, tuple[str, ...]] = {
@@ -132,6 +151,7 @@ CASE_KEYS: dict[str, tuple[str, ...]] = {
     "prototype.sizes": tuple(SIZE_KEYS), "prototype.fluid": FLUID_KEYS,
     "facility": FACILITY_KEYS, "matching": MATCHING_KEYS, "matching.model_fluid": FLUID_KEYS,
     "runs": RUNS_KEYS, "runs.loading": LOADING_KEYS, "runs.waves": WAVE_KEYS,
+    "propulsion": PROPULSION_KEYS, "propulsion.resistance_estimate": RESISTANCE_ESTIMATE_KEYS,
 }
 
 def _show_path(path: str) -> str:
@@ -265,6 +285,8 @@ def _read_facility_table(r: FieldReader, data: Any, path: str = "facility") -> F
     shortest = r.field(t, "shortest_model", path, LENGTH, _LIMITS["model_length"])
     longest = r.field(t, "longest_model", path, LENGTH, _LIMITS["model_length"])
     steady = r.field(t, "shortest_steady_time", path, TIME, (0.0, 3600.0))
+    max_thrust = r.field(t, "largest_thrust", path, FORCE, _LIMITS["dynamometer_force"])
+    max_torque = r.field(t, "largest_torque", path, TORQUE, _LIMITS["dynamometer_torque"])
     if shortest is not None and longest is not None and shortest > longest:
         r.problem(key_path(path, "shortest_model"), "longer than longest_model; expected "
                   "shortest_model <= longest_model")
@@ -284,7 +306,8 @@ def _read_facility_table(r: FieldReader, data: Any, path: str = "facility") -> F
                         deceleration=braking, open_jet=open_jet,
                         wavemaker_period_range=periods, wavemaker_max_height=highest,
                         max_rotation_rate=fastest, min_model_length=shortest,
-                        max_model_length=longest, min_steady_time=steady, **kw)
+                        max_model_length=longest, min_steady_time=steady,
+                        max_thrust=max_thrust, max_torque=max_torque, **kw)
     except InputError as exc:
         r.problems.extend(exc.problems)
         return None
@@ -474,6 +497,98 @@ def _read_runs(r: FieldReader, data: Any) -> MatrixSpec | None:
         return None
 
 
+def _measured_file(r: FieldReader, value: Any, path: str, base_dir: Path, reader, **kw):
+    """Runs read from a measured-data file named in the case (relative to the case file); its
+    problems become problems of the case, prefixed with the key path."""
+    if not isinstance(value, str) or not value.strip():
+        r.problem(path, f"{show(value)} is not valid; expected the path of a .csv or .xlsx file")
+        return None
+    file = Path(value) if Path(value).is_absolute() else base_dir / value
+    try:
+        return reader(file, **kw)
+    except BAD_INPUT_ERRORS as exc:
+        lines = getattr(exc, "problems", None) or [str(exc)]
+        r.problems.extend(f"{path}: {line}" for line in lines)
+        return None
+
+
+def _read_resistance_estimate(r: FieldReader, data: Any, path: str):
+    """(ship speeds [m/s], total resistance [N]) of a [propulsion.resistance_estimate] table."""
+    t = r.table(data, path, RESISTANCE_ESTIMATE_KEYS, required=("speeds",))
+    speeds = r.quantities(t, "speeds", path, SPEED, _LIMITS["speed"])
+    if ("total_resistance" in t) == ("effective_power" in t):
+        r.problem(key_path(path, "total_resistance"), "expected exactly one of "
+                  "total_resistance and effective_power")
+        return None
+    if "total_resistance" in t:
+        values = r.quantities(t, "total_resistance", path, FORCE, _LIMITS["ship_resistance"])
+    else:
+        power = r.quantities(t, "effective_power", path, POWER, _LIMITS["ship_power"])
+        values = None if power is None or speeds is None or len(power) != len(speeds) else \
+            tuple(p / v for p, v in zip(power, speeds, strict=True))
+    if speeds is None or values is None:
+        return None
+    if len(values) != len(speeds):
+        r.problem(path, f"{len(speeds)} speeds and {len(values)} values; expected one value "
+                  "per speed")
+        return None
+    return speeds, values
+
+
+def _read_propulsion(r: FieldReader, data: Any, base_dir: Path, proto: Prototype | None,
+                     request: MatchRequest | None) -> PropulsionSpec | None:
+    """The [propulsion] table: propeller, open water, resistance source, expected factors."""
+    path = "propulsion"
+    t = r.table(data, path, PROPULSION_KEYS)
+    kw: dict[str, Any] = {}
+    diameter = r.field(t, "propeller_diameter", path, LENGTH, _LIMITS["propeller_diameter"])
+    if diameter is not None:
+        kw["propeller_diameter"] = diameter
+    kw["propellers"] = r.integer(t, "propellers", path, 1, 4, 1)
+    for key in ("thrust_polynomial", "torque_polynomial"):
+        coeffs = r.quantities(t, key, path, RATIO, _LIMITS["polynomial"], strict_low=False)
+        if coeffs is not None:
+            kw[key] = coeffs
+    for key in ("wake_fraction", "thrust_deduction", "rotative_efficiency", "form_factor"):
+        low, high = {"thrust_deduction": (-0.2, 0.6), "rotative_efficiency": (0.7, 1.3),
+                     "form_factor": (0.0, 1.5)}.get(key, (0.0, 0.8))
+        value = r.field(t, key, path, RATIO, (low, high), strict_low=False)
+        if value is not None:
+            kw[key] = value
+    factors = r.quantities(t, "tow_force_factors", path, RATIO, _LIMITS["tow_force_factor"],
+                           strict_low=False)
+    if factors is not None:
+        kw["tow_force_factors"] = factors
+    form = r.choice(t, "friction_correction", path, FRICTION_CORRECTION_FORMS)
+    if form is not None:
+        kw["friction_correction"] = form
+    if "open_water" in t:
+        # Thrust and torque in the file are reduced with the model diameter, known only when
+        # the case fixes the scale; a file of coefficients needs none.
+        scale = None if request is None or proto is None else (
+            request.scale if request.scale is not None else
+            proto.length / request.model_length if request.model_length is not None else None)
+        d_m = None if diameter is None or scale is None else diameter / scale
+        kw["open_water"] = _measured_file(r, t["open_water"], key_path(path, "open_water"),
+                                          base_dir, read_open_water_runs, diameter=d_m)
+    if "resistance_test" in t:
+        kw["resistance_runs"] = _measured_file(r, t["resistance_test"],
+                                               key_path(path, "resistance_test"), base_dir,
+                                               read_resistance_runs)
+    if "resistance_estimate" in t:
+        got = _read_resistance_estimate(r, t["resistance_estimate"],
+                                        key_path(path, "resistance_estimate"))
+        if got is not None:
+            kw["resistance_speeds"], kw["resistance_values"] = got
+    if any(v is None for v in kw.values()):
+        return None
+    try:
+        return PropulsionSpec(**kw)
+    except InputError as exc:
+        r.problems.extend(exc.problems)
+        return None
+
+
 def _read_about(r: FieldReader, data: Any) -> dict:
     t = r.table(data, "about", ABOUT_KEYS)
     return {k: v for k in ABOUT_KEYS if (v := r.text(t, k, "about")) is not None}
@@ -554,9 +669,13 @@ def parse_case(mapping: Any, base_dir: str | Path = ".", name: str = "case") -> 
     if test and facility is not None and facility.kind not in TEST_FACILITIES[test]:
         r.problem("test", f"a {test} test cannot be run in a {facility.kind.replace('_', ' ')}"
                   f"; expected a facility of kind {' or '.join(TEST_FACILITIES[test])}")
+    propulsion = None
+    if "propulsion" in doc:
+        propulsion = _read_propulsion(r, doc["propulsion"], Path(base_dir), proto, request)
     r.finish()
     return Case(prototype=proto, facility=facility, request=request, matrix=matrix,
-                metadata=about, name=about.get("title", name), test=test)
+                metadata=about, name=about.get("title", name), test=test,
+                propulsion=propulsion)
 
 
 def _cross_checks(r: FieldReader, proto: Prototype, facility: Facility,

@@ -31,17 +31,22 @@ PRESSURE = "[mass] / [length] / [time] ** 2"
 RATE = "1 / [time]"
 ACCEL = "[length] / [time] ** 2"
 RATIO = "dimensionless"
+FORCE = "[mass] * [length] / [time] ** 2"
+TORQUE = "[mass] * [length] ** 2 / [time] ** 2"
+POWER = "[mass] * [length] ** 2 / [time] ** 3"
 
 DIM_WORDS = {
     LENGTH: "a length", AREA: "an area", VOLUME: "a volume", SPEED: "a speed", TIME: "a time",
     TEMPERATURE: "a temperature", PRESSURE: "a pressure", RATE: "a rotation rate or frequency",
-    ACCEL: "an acceleration", RATIO: "a dimensionless number",
+    ACCEL: "an acceleration", RATIO: "a dimensionless number", FORCE: "a force",
+    TORQUE: "a torque", POWER: "a power",
 }
 DIM_EXAMPLES = {
     LENGTH: "'3.2 m' or '10 ft'", AREA: "'12 m^2'", VOLUME: "'2100 m^3'",
     SPEED: "'2.5 m/s' or '18 kn'", TIME: "'10 min' or '3 h'", TEMPERATURE: "'15 degC'",
     PRESSURE: "'101325 Pa' or '2 bar'", RATE: "'12 Hz' or '600 rpm'", ACCEL: "'0.5 m/s^2'",
-    RATIO: "'0.035' or '35 g/kg'",
+    RATIO: "'0.035' or '35 g/kg'", FORCE: "'150 N' or '30 lbf'", TORQUE: "'6 N*m'",
+    POWER: "'1500 kW'",
 }
 
 #: Marks a key that is absent (a TOML value is never this object).
@@ -300,7 +305,8 @@ def _si_text(si: float, dim: str, unit: str | None = None) -> str:
     if dim == TEMPERATURE:
         return f"{si:g} K"
     sym = {LENGTH: "m", AREA: "m^2", VOLUME: "m^3", SPEED: "m/s", TIME: "s", PRESSURE: "Pa",
-           RATE: "1/s", ACCEL: "m/s^2", RATIO: ""}.get(dim, "")
+           RATE: "1/s", ACCEL: "m/s^2", RATIO: "", FORCE: "N", TORQUE: "N m",
+           POWER: "W"}.get(dim, "")
     return f"{si:g} {sym}".strip()
 
 
@@ -318,6 +324,9 @@ __all__ = [
     "TEMPERATURE",
     "TIME",
     "VOLUME",
+    "FORCE",
+    "POWER",
+    "TORQUE",
     "FieldReader",
     "key_path",
     "show",

@@ -327,12 +327,42 @@ class LoadingCondition:
         Trim [m], positive by the stern.
     displacement : float or None
         Displacement volume [m^3].
+    lcg : float or None
+        Longitudinal centre of gravity [m] from the reference the user works to (e.g. the
+        aft perpendicular, positive forward).
+    vcg : float or None
+        Vertical centre of gravity above the keel (KG) [m].
+    gm : float or None
+        Transverse metacentric height [m].
+    roll_radius, pitch_radius, yaw_radius : float or None
+        Radii of gyration k_xx, k_yy, k_zz about the centre of gravity [m].
+    heave_period, roll_period, pitch_period : float or None
+        Natural periods [s].
     """
 
     name: str
     draught: float | None = None
     trim: float = 0.0
     displacement: float | None = None
+    lcg: float | None = None
+    vcg: float | None = None
+    gm: float | None = None
+    roll_radius: float | None = None
+    pitch_radius: float | None = None
+    yaw_radius: float | None = None
+    heave_period: float | None = None
+    roll_period: float | None = None
+    pitch_period: float | None = None
+
+    def mass_properties(self) -> dict[str, float]:
+        """The mass properties given for this loading [m or s], by field name."""
+        return {k: getattr(self, k) for k in MASS_PROPERTY_KEYS if getattr(self, k) is not None}
+
+
+#: Mass properties a loading condition may give (fields of :class:`LoadingCondition`): lengths
+#: [m] and natural periods [s], at full scale.
+MASS_PROPERTY_KEYS = ("lcg", "vcg", "gm", "roll_radius", "pitch_radius", "yaw_radius",
+                      "heave_period", "roll_period", "pitch_period")
 
 
 @dataclass(frozen=True)

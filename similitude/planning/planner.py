@@ -56,6 +56,7 @@ from similitude.planning.findings import (
     status_counts,
 )
 from similitude.planning.matrix import build_matrix, runs_needed, runs_text
+from similitude.planning.model_build import ModelBuild, model_build
 from similitude.planning.solution import Solution
 from similitude.planning.solver import DEFAULT_CANDIDATES, solve
 from similitude.units import format_scale
@@ -175,6 +176,13 @@ class Plan:
         (``scale`` itself when it was not rounded or was fixed by the case)."""
         lam0 = self.solution.limiting_scale
         return self.scale if lam0 is None else lam0
+
+    @property
+    def model_build(self) -> ModelBuild:
+        """What the model shop builds: mass per loading in the test water, draughts, centres,
+        radii of gyration and natural periods scaled, turbulence stimulators, the model
+        propeller (:func:`similitude.planning.model_build.model_build`)."""
+        return model_build(self.case, self.scale, self.model_fluid, self.prototype_fluid)
 
     # -- outputs -----------------------------------------------------------------------------
     def to_excel(self, path, overwrite: bool = False, paper: str = "A4"):

@@ -40,6 +40,7 @@ from similitude.correlations.propulsion import FRICTION_CORRECTION_FORMS
 from similitude.correlations.waves import SPECTRA
 from similitude.errors import BAD_INPUT_ERRORS, InputError
 from similitude.planning.case import (
+    MASS_PROPERTY_KEYS,
     MATCHABLE_GROUPS,
     OBJECTIVES,
     PROTOTYPE_KINDS,
@@ -103,6 +104,10 @@ _LIMITS = {
     "draught": (1e-3, 100.0),                  # m
     "trim": (-50.0, 50.0),                     # m
     "displacement": (1e-9, 1e7),               # m^3
+    "lcg": (-2000.0, 2000.0),                  # m, from the user's reference point
+    "centre_height": (0.0, 500.0),             # m: VCG above the keel, GM
+    "gyration": (0.0, 1000.0),                 # m: radii of gyration
+    "natural_period": (0.0, 300.0),            # s
     "temperature": (1.0, 2000.0),              # K; the fluid's own range is checked after
     "dynamometer_force": (0.0, 1e5),           # N
     "dynamometer_torque": (0.0, 1e4),          # N m
@@ -135,7 +140,7 @@ MATCHING_KEYS = ("exact", "report", "scale", "model_length", "choose", "friction
                  "form_factor", "model_fluid", "round_scale", "relax")
 RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_between_runs",
              "loading", "waves")
-LOADING_KEYS = ("name", "draught", "trim", "displacement")
+LOADING_KEYS = ("name", "draught", "trim", "displacement", *MASS_PROPERTY_KEYS)
 WAVE_KEYS = ("name", "kind", "period", "length_ratio", "height", "steepness",
              "significant_height", "peak_period", "spectrum", "gamma", "duration")
 PROPULSION_KEYS = ("propeller_diameter", "propellers", "open_water", "thrust_polynomial",
@@ -399,9 +404,20 @@ def _read_loading(r: FieldReader, data: Any, path: str) -> LoadingCondition | No
     draught = r.field(t, "draught", path, LENGTH, _LIMITS["draught"])
     trim = r.field(t, "trim", path, LENGTH, _LIMITS["trim"], strict_low=False)
     disp = r.field(t, "displacement", path, VOLUME, _LIMITS["displacement"])
+    mass = {key: r.field(t, key, path, TIME if key.endswith("_period") else LENGTH,
+                         _LIMITS[_MASS_LIMIT[key]], strict_low=key != "lcg")
+            for key in MASS_PROPERTY_KEYS}
     if name is None:
         return None
-    return LoadingCondition(name=name, draught=draught, trim=trim or 0.0, displacement=disp)
+    return LoadingCondition(name=name, draught=draught, trim=trim or 0.0, displacement=disp,
+                            **mass)
+
+
+#: Plausibility limits of the mass properties of a loading (keys of _LIMITS).
+_MASS_LIMIT = {"lcg": "lcg", "vcg": "centre_height", "gm": "centre_height",
+               "roll_radius": "gyration", "pitch_radius": "gyration",
+               "yaw_radius": "gyration", "heave_period": "natural_period",
+               "roll_period": "natural_period", "pitch_period": "natural_period"}
 
 
 def _read_wave(r: FieldReader, data: Any, path: str) -> WaveCondition | None:

@@ -148,6 +148,28 @@ def _case_toml(facility='facility = "tank.toml"\n', about="", extra="") -> str:
             'temperature = "15 degC"\n' + extra)
 
 
+def test_loading_mass_properties_are_read_to_si(tmp_path):
+    # 1 cm = 0.01 m, 1 min = 60 s (SI Brochure, 9th ed. 2019, Tables 8 and 5)
+    (tmp_path / "tank.toml").write_text(_facility_toml())
+    (tmp_path / "case.toml").write_text(_case_toml(extra=(
+        '[[runs.loading]]\nname = "sea"\ndraught = "3.6 m"\nvcg = "5.2 m"\ngm = "120 cm"\n'
+        'roll_radius = "5.6 m"\npitch_radius = "19.5 m"\nroll_period = "0.2 min"\n'
+        'heave_period = "6 s"\nlcg = "-1.5 m"\n')))
+    ld = load_case(tmp_path / "case.toml").matrix.loading[0]
+    assert (ld.vcg, ld.gm, ld.roll_radius, ld.pitch_radius) == (5.2, pytest.approx(1.2), 5.6,
+                                                                19.5)
+    assert ld.roll_period == pytest.approx(12.0) and ld.heave_period == 6.0
+    assert ld.lcg == -1.5  # a coordinate: negative is allowed
+
+
+def test_a_mass_property_without_a_unit_is_refused_naming_the_key(tmp_path):
+    (tmp_path / "tank.toml").write_text(_facility_toml())
+    (tmp_path / "case.toml").write_text(_case_toml(extra=(
+        '[[runs.loading]]\nname = "sea"\ngm = 1.2\n')))
+    with pytest.raises(InputError, match=r"runs\.loading\[0\]\.gm"):
+        load_case(tmp_path / "case.toml")
+
+
 def test_facility_file_is_read_relative_to_the_case_file(tmp_path):
     (tmp_path / "facilities").mkdir()
     (tmp_path / "facilities" / "tank.toml").write_text(_facility_toml())

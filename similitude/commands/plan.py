@@ -23,8 +23,6 @@ from similitude.commands.common import (
     print_written,
     workbook_path,
 )
-from similitude.dimensional.groups import get as catalogued_group
-from similitude.errors import InputError
 from similitude.planning.findings import (
     checks_summary,
     checks_table,
@@ -163,8 +161,10 @@ def summary(plan: Plan) -> str:
              *(f"  {t}" for t in plan.requested_not_matched_lines()),
              f"  scale           {format_scale(plan.scale)}  (model length "
              f"{_fmt(plan.model_length)} m, prototype {_fmt(case.prototype.length)} m)",
-             f"  model fluid     {_fluid_text(plan.model_fluid)}"]
-    lines += _speed_lines(plan.speeds)
+             f"  model fluid     {_fluid_text(plan.model_fluid, not plan.model_pressures)}"]
+    if plan.model_pressures:
+        lines.append(f"  pressures       {plan.model_pressure_text()}")
+    lines += _speed_lines(case, plan.speeds)
     lines += _propulsion_lines(plan)
     lines += _group_lines(plan.groups)
     if plan.binding_constraint:
@@ -186,23 +186,24 @@ def _fmt(x: Any, digits: int = 4) -> str:
     return f"{v:.{digits}g}"
 
 
-def _fluid_text(state) -> str:
+def _fluid_text(state, with_pressure: bool = True) -> str:
     text = f"{state.fluid} at {float(state.temperature_si) - 273.15:.1f} degC"
-    if state.pressure_si is not None:
+    if with_pressure and state.pressure_si is not None:
         text += f", {float(state.pressure_si) / 1e3:.4g} kPa"
     return text
 
 
-def _speed_lines(speeds) -> list[str]:
-    """Prototype -> model speeds on one line, then one line per model rotation rate."""
+def _speed_lines(case, speeds) -> list[str]:
+    """Prototype speeds in the case's unit -> model speeds in m/s on one line, then one line
+    per model rotation rate."""
     lines = []
-    col_kn, col_m = "prototype speed [kn]", "model speed [m/s]"
+    col_user, col_m = case.speed_header, "model speed [m/s]"
+    if col_user not in speeds:
+        col_user = "prototype speed [m/s]"
+    unit = col_user[col_user.index("[") + 1:-1]
     if col_m in speeds:
-        parts = []
-        for _, row in speeds.iterrows():
-            proto = (f"{row[col_kn]:.4g} kn" if col_kn in speeds
-                     else f"{row['prototype speed [m/s]']:.4g} m/s")
-            parts.append(f"{proto} -> {row[col_m]:.4g} m/s")
+        parts = [f"{row[col_user]:.4g} {unit} -> {row[col_m]:.4g} m/s"
+                 for _, row in speeds.iterrows()]
         lines.append("  model speeds    " + "; ".join(parts))
     for c in speeds.columns:
         if "[1/s]" in c and "model" in c:
@@ -230,12 +231,9 @@ def _propulsion_lines(plan: Plan) -> list[str]:
     return lines
 
 
-def _group_label(key: str) -> str:
-    try:
-        g = catalogued_group(key)
-    except InputError:  # the catalogue may not know a key; the key itself is readable
-        return key
-    return f"{g.name} ({g.symbol})"
+def _group_label(name: str, symbol: str) -> str:
+    """A group as the summary names it: its name without the definition, and its symbol."""
+    return f"{name.split(', ')[0]} ({symbol})"
 
 
 def _group_lines(groups) -> list[str]:
@@ -243,9 +241,9 @@ def _group_lines(groups) -> list[str]:
     if not len(groups):
         return []
     at = groups[groups["prototype speed [m/s]"] == groups["prototype speed [m/s]"].max()]
-    matched = [_group_label(k) for k, m in zip(at["key"], at["matched"], strict=True) if m]
-    unmatched = [f"{_group_label(k)} ratio {_fmt(r, 3)}"
-                 for k, m, r in zip(at["key"], at["matched"], at["ratio"], strict=True) if not m]
+    rows = list(zip(at["group"], at["symbol"], at["matched"], at["ratio"], strict=True))
+    matched = [_group_label(g, s) for g, s, m, _ in rows if m]
+    unmatched = [f"{_group_label(g, s)} ratio {_fmt(r, 3)}" for g, s, m, r in rows if not m]
     return ["  matched         " + (", ".join(matched) or "none"),
             "  not matched     " + (", ".join(unmatched) or "none")
             + ("  (prototype/model at the design speed)" if unmatched else "")]

@@ -78,3 +78,26 @@ def euler(pressure_difference, density, speed):
 def advance_ratio(advance_speed, rotation_rate, diameter):
     """Advance ratio J = V_A / (n D) [-]; V_A [m/s], n [1/s], D [m]."""
     return np.divide(advance_speed, np.multiply(rotation_rate, diameter))
+
+
+#: Radius fraction r/R of the blade section whose Reynolds number a plan reports [-].
+BLADE_SECTION_RADIUS = 0.7
+
+
+def blade_section_speed(advance_speed, rotation_rate, diameter,
+                        radius_fraction=BLADE_SECTION_RADIUS):
+    """Inflow speed of a propeller blade section, sqrt(V_A^2 + (x pi n D)^2) [m/s]; V_A [m/s],
+    n [1/s], D [m], x = r/R [-] (0.7 by default)."""
+    return np.hypot(advance_speed, radius_fraction * np.pi * np.multiply(rotation_rate, diameter))
+
+
+def blade_reynolds(advance_speed, rotation_rate, diameter, chord, kinematic_viscosity,
+                   radius_fraction=BLADE_SECTION_RADIUS):
+    """Blade-section Reynolds number Re_0.7R = c sqrt(V_A^2 + (0.7 pi n D)^2) / nu [-].
+
+    The chord c [m] is that of the section at ``radius_fraction`` (0.7 R by default); the
+    ITTC open-water procedure reports the propeller Reynolds number at 0.7 R (ITTC
+    7.5-02-03-02.1).
+    """
+    return reynolds(blade_section_speed(advance_speed, rotation_rate, diameter, radius_fraction),
+                    chord, kinematic_viscosity)

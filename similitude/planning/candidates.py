@@ -27,7 +27,6 @@ References
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, replace
 
 import numpy as np
@@ -35,8 +34,10 @@ import numpy as np
 from fluids_props import FluidState, get_fluid
 from fluids_props.validity import OutOfRangeError
 from similitude.constants import G0, P_ATM
+from similitude.dimensional import groups as group_catalogue
 from similitude.dimensional.numbers import (
     advance_ratio,
+    blade_reynolds,
     cavitation_number,
     froude,
     mach,
@@ -217,11 +218,8 @@ def group_value(key: str, s: SideState, propeller: bool):
         return froude(v, np.asarray(s.length))
     if key == "reynolds":
         if propeller and s.rotation is not None:
-            d = s.diameter
-            c = s.chord if s.chord is not None else d
-            # Blade section speed at 0.7 R: advance and rotation speeds combined.
-            section_speed = np.sqrt(v**2 + (0.7 * math.pi * s.rotation * d) ** 2)
-            return reynolds(section_speed, c, st.kinematic_viscosity_si)
+            c = s.chord if s.chord is not None else s.diameter
+            return blade_reynolds(v, s.rotation, s.diameter, c, st.kinematic_viscosity_si)
         return reynolds(v, s.length, st.kinematic_viscosity_si)
     if key == "mach":
         if st.speed_of_sound_si is None:
@@ -251,6 +249,30 @@ def group_value(key: str, s: SideState, propeller: bool):
             return nan
         return froude(v, np.asarray(s.depth))
     raise InputError(f"group: {key!r} is unknown")
+
+
+#: Names and symbols of the two cavitation numbers of a propeller, with their definitions:
+#: the one on rotation speed (the group a propeller plan matches) and the one on advance
+#: speed (for cavitation charts drawn on it); sigma_v = sigma_n / J^2.
+CAVITATION_ON_ROTATION = ("cavitation number on rotation speed, sigma_n = (p - p_v)/"
+                          "(rho n^2 D^2 / 2)", "sigma_n")
+CAVITATION_ON_ADVANCE = ("cavitation number on advance speed, sigma_v = (p - p_v)/"
+                         "(rho V_A^2 / 2)", "sigma_v")
+#: Name and symbol of a propeller's Reynolds number (blade section at 0.7 R).
+BLADE_REYNOLDS_LABEL = ("Reynolds number of the blade section at 0.7 R, Re_0.7R = c_0.7R "
+                        "sqrt(V_A^2 + (0.7 pi n D)^2)/nu", "Re_0.7R")
+
+
+def group_label(key: str, propeller: bool) -> tuple[str, str]:
+    """(name, symbol) of a group as a plan shows it: the catalogue's, except a propeller's
+    cavitation number (on rotation speed, sigma_n) and Reynolds number (blade section at
+    0.7 R), which are named with their definitions so they are not read as the others."""
+    if propeller and key == "cavitation":
+        return CAVITATION_ON_ROTATION
+    if propeller and key == "reynolds":
+        return BLADE_REYNOLDS_LABEL
+    g = group_catalogue.get(key)
+    return g.name, g.symbol
 
 
 def _propeller_diameter(case: Case) -> float:
@@ -390,6 +412,20 @@ def pressure_set_by_facility(prob: Problem) -> bool:
     if spec is not None and spec.pressure is not None:
         return True
     return _uses_pressure(case) or any(o.info.kind == "gas" for o in prob.options)
+
+
+def pressure_labels(case: Case, gas: bool) -> tuple[str, str]:
+    """(what the facility's pressure range sets, what the model's reference point feels), in
+    words: the air pressure above the water of a depressurised tank and the static pressure
+    at the shaft centre (a propeller) or the model below it; in a tunnel both are the static
+    pressure at the shaft centre or model, or the test-section static pressure of a gas."""
+    where = ("static pressure at the shaft centre" if case.prototype.kind == "propeller"
+             else "static pressure at the model")
+    if case.facility.free_surface:
+        return "air pressure above the water", where
+    if gas:
+        return "test-section static pressure", "test-section static pressure"
+    return where, where
 
 
 def scale_bounds(case: Case) -> tuple[float, float]:
@@ -751,6 +787,9 @@ def candidate_at(prob: Problem, solution: Solution) -> Candidates:
 
 __all__ = [
     "AXES",
+    "BLADE_REYNOLDS_LABEL",
+    "CAVITATION_ON_ADVANCE",
+    "CAVITATION_ON_ROTATION",
     "AXIS_WORDS",
     "FREE_GROUPS",
     "SPEED_EXPONENT",
@@ -764,6 +803,7 @@ __all__ = [
     "candidate_at",
     "evaluate",
     "fluid_info",
+    "group_label",
     "group_value",
     "map_state",
     "mismatch",
@@ -771,6 +811,7 @@ __all__ = [
     "model_side",
     "model_state",
     "prototype_side",
+    "pressure_labels",
     "pressure_set_by_facility",
     "prototype_state",
     "residuals",

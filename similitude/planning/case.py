@@ -16,6 +16,7 @@ from similitude.correlations.waves import SPECTRA
 from similitude.errors import InputError
 from similitude.planning.facilities import Facility
 from similitude.planning.propulsion_spec import PropulsionSpec
+from similitude.units import UnitInputError, to_si
 
 PROTOTYPE_KINDS = (
     "surface_ship",
@@ -26,6 +27,20 @@ PROTOTYPE_KINDS = (
     "vehicle",
     "wing",
 )
+
+#: Prototype kinds with a hull: tank blockage on the midship area, a friction line for the
+#: viscous resistance, loading conditions, speeds in knots unless written otherwise.
+HULL_KINDS = ("surface_ship", "submerged_body", "offshore_structure")
+
+
+def body_class(prototype_kind: str) -> str:
+    """What friction practice a prototype kind follows: ``"hull"`` (a friction line such as
+    ITTC-1957), ``"propeller"`` (the ITTC-78 blade-section drag at a blade-section Reynolds
+    number) or ``"body"`` (wings, vehicles, bluff bodies: Reynolds numbers only)."""
+    if prototype_kind in HULL_KINDS:
+        return "hull"
+    return "propeller" if prototype_kind == "propeller" else "body"
+
 
 #: Names of the groups a request may ask to match (keys of :mod:`similitude.dimensional.groups`).
 MATCHABLE_GROUPS = (
@@ -499,6 +514,10 @@ class Case:
     propulsion : PropulsionSpec or None
         The self-propulsion test's inputs (propeller, open water, resistance estimate,
         expected propulsion factors, tow forces); used when ``test`` is ``"self_propulsion"``.
+    speed_unit : str
+        The unit the prototype speeds are shown in, as the user wrote them (the case-file
+        reader keeps the unit of the first prototype speed: "kn", "m/s", "km/h" ...); ""
+        (default): "kn" for a hull, "m/s" otherwise. Inside, speeds stay in m/s.
     """
 
     prototype: Prototype
@@ -509,8 +528,18 @@ class Case:
     name: str = "case"
     test: str = ""
     propulsion: PropulsionSpec | None = None
+    speed_unit: str = ""
 
     def __post_init__(self) -> None:
+        unit = self.speed_unit or ("kn" if self.prototype.kind in HULL_KINDS else "m/s")
+        try:
+            factor = to_si(f"1 {unit}", "[length] / [time]", "speed_unit")
+        except UnitInputError:
+            factor = float("nan")
+        if not (isinstance(unit, str) and math.isfinite(factor) and factor > 0):
+            raise InputError(f"speed_unit: {unit!r} is not a unit of speed; expected e.g. "
+                             "'kn', 'm/s' or 'km/h'")
+        object.__setattr__(self, "speed_unit", unit)  # frozen: resolve the default once
         test = self.test or default_test(self.prototype.kind, self.facility.kind)
         if test not in TEST_KINDS:
             raise InputError(f"test: {test!r} is not a kind of test; expected one of "
@@ -520,3 +549,13 @@ class Case:
                              f"{self.facility.kind.replace('_', ' ')}; expected a facility of "
                              f"kind {' or '.join(TEST_FACILITIES[test])}")
         object.__setattr__(self, "test", test)  # frozen: resolve the default once, here
+
+    @property
+    def speed_unit_factor(self) -> float:
+        """Metres per second in one :attr:`speed_unit` [m/s]."""
+        return float(to_si(f"1 {self.speed_unit}", "[length] / [time]", "speed_unit"))
+
+    @property
+    def speed_header(self) -> str:
+        """Column header of prototype speeds in the user's unit, e.g. "prototype speed [kn]"."""
+        return f"prototype speed [{self.speed_unit}]"

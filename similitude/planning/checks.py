@@ -46,6 +46,7 @@ from similitude.planning.candidates import (
     Candidates,
     Problem,
     model_groups,
+    pressure_labels,
     pressure_set_by_facility,
 )
 from similitude.planning.findings import AT_LIMIT_MARGIN, Check, judge
@@ -211,12 +212,7 @@ def _pressure_checks(prob: Problem, c: Candidates) -> list[Check]:
         return []
     p = float(np.ravel(c.pressure)[0])
     lo_p, hi_p = fac.pressure_range
-    if fac.free_surface:
-        what = "air pressure above the water"
-    elif fac.kind == "wind_tunnel":
-        what = "test-section static pressure"
-    else:
-        what = "tunnel static pressure at the model"
+    what, _ = pressure_labels(prob.case, c.state.vapour_pressure_si is None)
     advice = "the facility cannot reach this pressure"
     return [
         _check(f"{what} vs facility minimum", p, lo_p, "Pa", "min", "facility data", advice,

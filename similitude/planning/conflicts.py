@@ -218,7 +218,10 @@ def _generic(key, gp, gm, case, c) -> Conflict:
                 f"about {abs(pgp / pgm - 1) * 100:.2g} %.")
     elif key == "cavitation":
         more = "less" if gm > gp else "more"
-        text = (f"Cavitation number model {gm:.3g} against prototype {gp:.3g}: cavitation "
+        which = ("Cavitation number on rotation speed sigma_n = (p - p_v)/(rho n^2 D^2/2)"
+                 if case.prototype.kind == "propeller" else
+                 "Cavitation number sigma_v = (p - p_v)/(rho V^2/2)")
+        text = (f"{which}: model {gm:.3g} against prototype {gp:.3g}: cavitation "
                 f"inception and extent are not reproduced (the model cavitates {more} than "
                 "the prototype); do not use these runs for cavitation or erosion.")
     elif key == "froude":

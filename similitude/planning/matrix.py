@@ -35,11 +35,11 @@ import math
 import numpy as np
 import pandas as pd
 
-from similitude.constants import G0, KNOT
+from similitude.constants import G0
 from similitude.correlations import waves
-from similitude.dimensional.numbers import froude, reynolds
+from similitude.dimensional.numbers import blade_reynolds, blade_section_speed, froude, reynolds
 from similitude.errors import InputError
-from similitude.planning.case import Case
+from similitude.planning.case import Case, body_class
 from similitude.planning.solution import Solution
 
 #: Defaults used where the case is silent (common practice, from memory; see module notes).
@@ -110,16 +110,20 @@ def build_matrix(case: Case, solution: Solution) -> pd.DataFrame:
     cols["run"] = np.arange(1, n + 1)
     cols["repeat"] = i_r + 1
     cols["speed index"] = i_s + 1
-    names = np.array([ld.name if ld is not None else "design" for ld in loads], dtype=object)
-    cols["loading"] = names[i_l]
-    cols["heading [deg]"] = np.asarray(heads, dtype=float)[i_h]
+    if spec.loading or (case.facility.free_surface and body_class(case.prototype.kind) == "hull"):
+        names = np.array([ld.name if ld is not None else "design" for ld in loads],
+                         dtype=object)
+        cols["loading"] = names[i_l]
+    heading = np.asarray(heads, dtype=float)[i_h]
+    if spec.headings or wave_rows:  # no heading column where nothing has a heading
+        cols["heading [deg]"] = heading
     cols.update(_speed_columns(case, solution, vp_s[i_s], vm_s[i_s],
                                None if np_s is None else np_s[i_s]))
     if spec.loading:
         cols.update(_loading_columns(loads, i_l, scale))
     lm = float(case.prototype.length) / scale
     if wave_rows:
-        cols.update(_wave_columns(case, wave_rows, i_w, cols["heading [deg]"], vm_s[i_s],
+        cols.update(_wave_columns(case, wave_rows, i_w, heading, vm_s[i_s],
                                   scale, lm, notes))
     timing, t_run, t_overhead, runs_needed = _timing_columns(case, vm_s[i_s], lm, scale, cols,
                                                              notes)
@@ -189,29 +193,63 @@ def _wave_table(case: Case) -> list[dict]:
     return rows
 
 
+def reynolds_columns(case: Case) -> tuple[str, str]:
+    """Headers of the model and prototype Reynolds numbers of the run matrix: the blade-
+    section Re_0.7R for a propeller (the number its groups and checks use), V L / nu
+    otherwise."""
+    if body_class(case.prototype.kind) == "propeller":
+        return ("model Reynolds number Re_0.7R [-]", "prototype Reynolds number Re_0.7R [-]")
+    return ("model Reynolds number [-]", "prototype Reynolds number [-]")
+
+
+#: Header of the model blade-section inflow speed at 0.7 R of a propeller's runs.
+SECTION_SPEED_COLUMN = "model blade section speed at 0.7 R [m/s]"
+
+
+def shows_froude(case: Case) -> bool:
+    """Whether the runs carry Froude numbers: with a free surface, or when the request names
+    the Froude number (a wind-tunnel run has none that means anything)."""
+    req = case.request
+    return case.facility.free_surface or "froude" in req.exact or "froude" in req.report
+
+
 def _speed_columns(case: Case, solution: Solution, vp, vm, n_p) -> dict:
-    """Speeds, Froude and Reynolds numbers at both scales, rotation rates and current, per
-    run (``vp``, ``vm``, ``n_p``: prototype and model speeds, prototype rotation rates)."""
-    fac, spec = case.facility, case.matrix
-    lp = float(case.prototype.length)
+    """Speeds (prototype speeds also in the user's unit), Froude numbers where they mean
+    something, Reynolds numbers at both scales (a propeller's at its 0.7 R blade section),
+    rotation rates and current, per run (``vp``, ``vm``, ``n_p``: prototype and model speeds,
+    prototype rotation rates)."""
+    fac, spec, proto = case.facility, case.matrix, case.prototype
+    lp = float(proto.length)
     lm = lp / float(solution.scale)
     n = vp.size
     nu_p = float(np.asarray(solution.prototype_fluid.kinematic_viscosity_si))
     nu_m = float(np.asarray(solution.model_fluid.kinematic_viscosity_si))
     cols: dict[str, object] = {}
     cols["prototype speed [m/s]"] = vp
-    cols["prototype speed [kn]"] = vp / KNOT
+    if case.speed_unit != "m/s":
+        cols[case.speed_header] = vp / case.speed_unit_factor
     cols["model speed [m/s]"] = vm
-    cols["Froude number [-]"] = froude(vm, lm)
-    cols["prototype Froude number [-]"] = froude(vp, lp)
-    cols["model Reynolds number [-]"] = reynolds(vm, lm, nu_m)
-    cols["prototype Reynolds number [-]"] = reynolds(vp, lp, nu_p)
+    if shows_froude(case):
+        cols["Froude number [-]"] = froude(vm, lm)
+        cols["prototype Froude number [-]"] = froude(vp, lp)
+    re_model, re_proto = reynolds_columns(case)
+    rr = solution.rotation_ratio
+    n_m = None if n_p is None else (n_p * rr if rr is not None else np.full(n, math.nan))
+    if body_class(proto.kind) == "propeller" and n_p is not None:
+        d_p = float(proto.dimension("diameter", lp))
+        c_p = float(proto.dimension("blade_chord", d_p))  # the groups' chord (D when absent)
+        scale = float(solution.scale)
+        cols[re_model] = blade_reynolds(vm, n_m, d_p / scale, c_p / scale, nu_m)
+        cols[re_proto] = blade_reynolds(vp, n_p, d_p, c_p, nu_p)
+        cols[SECTION_SPEED_COLUMN] = blade_section_speed(vm, n_m, d_p / scale)
+    else:
+        cols[re_model] = reynolds(vm, lm, nu_m)
+        cols[re_proto] = reynolds(vp, lp, nu_p)
     if fac.free_surface:
         cols["model depth Froude number [-]"] = froude(vm, fac.depth)
     if n_p is not None:
-        rr = solution.rotation_ratio
         cols["prototype rotation rate [1/s]"] = n_p
-        cols["model rotation rate [1/s]"] = n_p * rr if rr is not None else np.full(n, math.nan)
+        cols["model rotation rate [1/s]"] = n_m
     if spec.current:
         cols["prototype current [m/s]"] = np.full(n, spec.current)
         cols["model current [m/s]"] = np.full(n, spec.current * solution.velocity_ratio)

@@ -29,19 +29,23 @@ import numpy as np
 import pandas as pd
 
 from fluids_props import FluidState
-from similitude.constants import KNOT
+from similitude.cautions import plan_caution
 from similitude.correlations.friction import turbulence_stimulation_advice
-from similitude.dimensional import groups as group_catalogue
 from similitude.dimensional import scaling
+from similitude.dimensional.numbers import cavitation_number
 from similitude.errors import InputError
 from similitude.plain_data import plain
 from similitude.planning.candidates import (
+    CAVITATION_ON_ADVANCE,
     Candidates,
     Problem,
     build_problem,
     candidate_at,
+    group_label,
     group_value,
     model_groups,
+    model_side,
+    pressure_labels,
 )
 from similitude.planning.case import MATCHABLE_GROUPS, Case, dimension_power
 from similitude.planning.checks import facility_checks
@@ -89,9 +93,10 @@ class Plan:
         The fluids at their states (scalars): density, viscosities and, where they apply,
         vapour pressure, surface tension and speed of sound.
     speeds : pandas.DataFrame
-        One row per prototype operating speed: ``prototype speed [m/s]``, ``prototype speed
-        [kn]``, ``model speed [m/s]``, and for a propeller the prototype and model rotation
-        rates [1/s].
+        One row per prototype operating speed: ``prototype speed [m/s]``, the same in the
+        unit the case wrote it (``Case.speed_header``, e.g. ``prototype speed [kn]``; absent
+        when that is m/s), ``model speed [m/s]``, and for a propeller the prototype and model
+        rotation rates [1/s].
     groups : pandas.DataFrame
         One row per (group, prototype speed): ``group``, ``symbol``, ``key``, ``prototype
         speed [m/s]``, ``prototype value``, ``model value``, ``ratio`` (prototype/model),
@@ -171,6 +176,29 @@ class Plan:
         return lines
 
     @property
+    def model_pressures(self) -> dict[str, float]:
+        """The pressures the facility is set to, each labelled [Pa]: the air pressure above
+        the water of a depressurised tank or basin and the static pressure at the shaft
+        centre (a propeller) or model centre below it; the static pressure at the shaft
+        centre or model in a tunnel; the test-section static pressure of a gas tunnel. Empty
+        when the plan sets no pressure (an atmospheric tank)."""
+        sol, case = self.solution, self.case
+        if sol.model_pressure is None:
+            return {}
+        surface, at_model = pressure_labels(case, self.model_fluid.vapour_pressure_si is None)
+        if case.facility.free_surface:
+            out = {surface: float(sol.static_pressure)}
+            if case.prototype.kind == "propeller" or case.prototype.immersion is not None:
+                out[at_model] = float(sol.model_pressure)
+            return out
+        return {at_model: float(sol.model_pressure)}
+
+    def model_pressure_text(self) -> str:
+        """:attr:`model_pressures` in words, e.g. "air pressure above the water 4.5 kPa;
+        static pressure at the shaft centre 9.1 kPa" ("" when none)."""
+        return "; ".join(f"{k} {v / 1e3:.4g} kPa" for k, v in self.model_pressures.items())
+
+    @property
     def limiting_scale(self) -> float:
         """The scale at the binding facility limit before rounding to a convenient one [-]
         (``scale`` itself when it was not rounded or was fixed by the case)."""
@@ -238,6 +266,7 @@ class Plan:
             "velocity_ratio": sol.velocity_ratio,
             "rotation_ratio": plain(sol.rotation_ratio),
             "model_pressure [Pa]": plain(sol.model_pressure),
+            "model_pressures [Pa]": {k: plain(v) for k, v in self.model_pressures.items()},
             "exact": list(sol.exact),
             "requested_exact": list(self.case.request.exact),
             "requested_not_matched": [{k: plain(v) for k, v in d.items()}
@@ -264,6 +293,7 @@ class Plan:
                 "propulsion_factors": self.propulsion.factors_source,
                 "speeds": frame(self.propulsion.speeds),
             },
+            "caution": plan_caution(self.case.facility.kind),
         }
 
     # -- display -----------------------------------------------------------------------------
@@ -284,6 +314,7 @@ class Plan:
             f"  model fluid {mf.fluid} at {t - 273.15:.2f} degC, {p / 1000:.6g} kPa "
             f"(nu = {float(mf.kinematic_viscosity_si):.4g} m^2/s); prototype "
             f"{self.prototype_fluid.fluid} at {tp - 273.15:.2f} degC",
+            *([f"  pressures: {self.model_pressure_text()}"] if self.model_pressures else []),
             f"  exact: {', '.join(self.solution.exact)}; binding: {self.binding_constraint}",
         ]
 
@@ -305,6 +336,7 @@ class Plan:
                 lines.append(f"    {ch.status}: {ch.name} {_fmt(ch.value)} "
                              f"(limit {_fmt(ch.limit)} {ch.unit})".rstrip())
         lines.append(f"  runs: {runs_text(self.matrix)}")
+        lines.append(f"  {plan_caution(self.case.facility.kind)}")
         return "\n".join(lines)
 
     def _repr_html_(self) -> str:
@@ -320,7 +352,8 @@ class Plan:
             f"<h4>Groups (design speed)</h4>{self._design_groups().to_html(index=False)}"
             f"<h4>Conflicts</h4><ul>{conf}</ul>"
             f"<h4>Checks: {html.escape(checks_summary(self.checks))}</h4>"
-            f"{checks_html(self.checks)}<h4>Notes</h4><ul>{notes}</ul></div>"
+            f"{checks_html(self.checks)}<h4>Notes</h4><ul>{notes}</ul>"
+            f"<p><i>{html.escape(plan_caution(self.case.facility.kind))}</i></p></div>"
         )
 
     def _design_groups(self):
@@ -371,32 +404,53 @@ def _groups_table(prob: Problem, c: Candidates, keys, requested_exact):
     pvals = {k: np.asarray(group_value(k, prob.proto, prob.propeller), dtype=float)
              for k in keys}
     for k in keys:
-        g = group_catalogue.get(k)  # every matchable group is catalogued
-        name, symbol = g.name, g.symbol
+        name, symbol = group_label(k, prob.propeller)
         for i, vp in enumerate(speeds):
             gp = float(np.ravel(pvals[k])[i]) if np.ndim(pvals[k]) else float(pvals[k])
             gm = float(model_groups(prob, c, i, (k,))[k][0])
-            if not (np.isfinite(gp) and np.isfinite(gm)):
-                continue
-            ratio = gp / gm if gm else float("inf")
-            rows.append({
-                "group": name, "symbol": symbol, "key": k, "prototype speed [m/s]": vp,
-                "prototype value": gp, "model value": gm, "ratio": ratio,
-                "matched": bool(abs(ratio - 1.0) <= 1e-6),
-                "requested": "exact" if k in exact else "report",
-            })
-    return pd.DataFrame(rows, columns=["group", "symbol", "key", "prototype speed [m/s]",
-                                       "prototype value", "model value", "ratio", "matched",
-                                       "requested"])
+            rows.append(_group_row(name, symbol, k, vp, gp, gm,
+                                   "exact" if k in exact else "report"))
+    if prob.propeller and "cavitation" in keys:
+        rows.extend(_advance_cavitation_rows(prob, c))
+    return pd.DataFrame([r for r in rows if r is not None],
+                        columns=["group", "symbol", "key", "prototype speed [m/s]",
+                                 "prototype value", "model value", "ratio", "matched",
+                                 "requested"])
+
+
+def _group_row(name, symbol, key, vp, gp, gm, requested):
+    if not (np.isfinite(gp) and np.isfinite(gm)):
+        return None
+    ratio = gp / gm if gm else float("inf")
+    return {"group": name, "symbol": symbol, "key": key, "prototype speed [m/s]": vp,
+            "prototype value": gp, "model value": gm, "ratio": ratio,
+            "matched": bool(abs(ratio - 1.0) <= 1e-6), "requested": requested}
+
+
+def _advance_cavitation_rows(prob: Problem, c: Candidates) -> list:
+    """A propeller's cavitation number on advance speed, sigma_v = (p - p_v)/(rho V_A^2/2),
+    beside the sigma_n it matches (sigma_v = sigma_n / J^2): for cavitation charts drawn on
+    the advance speed."""
+    name, symbol = CAVITATION_ON_ADVANCE
+    rows = []
+    for i, vp in enumerate(np.asarray(prob.case.prototype.speeds, dtype=float)):
+        sides = []
+        for side in (prob.proto, model_side(prob, c, i)):
+            st = side.state
+            v = float(np.ravel(side.speed)[i if side is prob.proto else 0])
+            p = float(np.ravel(side.reference_pressure)[0])
+            sides.append(float(cavitation_number(p, float(np.ravel(st.vapour_pressure_si)[0]),
+                                                 float(np.ravel(st.density_si)[0]), v)))
+        rows.append(_group_row(name, symbol, "cavitation_advance", vp, *sides, "derived"))
+    return rows
 
 
 def _speeds_table(case: Case, solution: Solution):
     vp = np.asarray(case.prototype.speeds, dtype=float)
-    data = {
-        "prototype speed [m/s]": vp,
-        "prototype speed [kn]": vp / KNOT,
-        "model speed [m/s]": vp * solution.velocity_ratio,
-    }
+    data = {"prototype speed [m/s]": vp}
+    if case.speed_unit != "m/s":
+        data[case.speed_header] = vp / case.speed_unit_factor
+    data["model speed [m/s]"] = vp * solution.velocity_ratio
     if case.prototype.rotation_rates and solution.rotation_ratio is not None:
         n = np.asarray(case.prototype.rotation_rates, dtype=float)
         data["prototype rotation rate [1/s]"] = n

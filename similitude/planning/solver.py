@@ -524,7 +524,7 @@ def _round_scale(case: Case, sol: Solution, n_candidates: int) -> Solution:
         lam = convenient_scale(lam0, direction, i)
         if not (math.isfinite(lam) and lam_lo * (1 - 1e-12) <= lam <= lam_hi * (1 + 1e-12)):
             break
-        if lam == lam0:
+        if abs(lam - lam0) <= 1e-7 * lam0:  # already convenient to the solver's precision
             return replace(sol, limiting_scale=lam0, limiting_binding=sol.binding)
         fixed = replace(case, request=replace(solved, scale=lam, round_scale=False,
                                               relax=False))
@@ -784,21 +784,46 @@ def _evaluate_line(prob, opt, base: dict, axis: str, xs: np.ndarray, solve_axis)
 
 
 def _binding_text(prob, opt, point) -> str:
-    """The active facility limits at the solution (within 1e-7 relative), in words."""
+    """The active facility limits at the solution (within 1e-7 relative), in words, with the
+    limit each one meets (e.g. "model rotation rate (dynamometer maximum)"), and the facility
+    temperature or pressure where the solution sits at an end of its range."""
     c = _eval_at(prob, opt, point)
     _, vmat, lims = violations(prob, c)
     fixed = ""
     if not opt.axes["lam"].free:
         fixed = "fixed scale" if prob.case.request.scale is not None else \
             "existing model length"
-    active = [lims[j].name for j in np.argsort(-vmat[:, 0]) if vmat[j, 0] > -1e-7] \
-        if vmat.size else []
+    active = [f"{lims[j].name} ({lims[j].limit_words})" for j in np.argsort(-vmat[:, 0])
+              if vmat[j, 0] > -1e-7] if vmat.size else []
+    active += _axis_ends(prob, opt, point)
     active = list(dict.fromkeys(active))
     if fixed:
         return fixed + (" (active limits: " + "; ".join(active) + ")" if active else "")
     if not active:
         return "scale range of the search (no facility limit active)"
     return "; ".join(active)
+
+
+def _axis_ends(prob, opt, point) -> list[str]:
+    """The facility's temperature or pressure at an end of its range at ``point``, in words
+    (a tunnel run at its highest pressure sets the speed the exact groups allow)."""
+    fac = prob.case.facility
+    out = []
+    if not any(g in ("reynolds", "mach", "weber", "cavitation") for g in prob.exact):
+        return out  # no exact group depends on the fluid state: its end binds nothing
+    for axis, what, unit, scale in (("p", "static pressure", "kPa", 1e-3),
+                                    ("T", "fluid temperature", "degC", None)):
+        ax = opt.axes[axis]
+        if not ax.free:
+            continue
+        v = point[axis]
+        for end, word in ((ax.high, "maximum"), (ax.low, "minimum")):
+            if abs(v - end) <= 1e-7 * abs(end):
+                shown = f"{v * scale:.4g} {unit}" if scale else f"{v - 273.15:.4g} {unit}"
+                where = "air pressure above the water" if axis == "p" and fac.free_surface \
+                    else what
+                out.append(f"{where} at the facility {word} {shown}")
+    return out
 
 
 def _make_solution(prob, opt, point, solve_axis, searched) -> Solution:

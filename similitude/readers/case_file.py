@@ -78,7 +78,7 @@ from similitude.readers.fields import (
     show,
 )
 from similitude.readers.measured import read_open_water_runs, read_resistance_runs
-from similitude.units import UnitInputError, parse_scale
+from similitude.units import UnitInputError, parse_quantity, parse_scale
 
 __all__ = ["load_case", "load_facility", "parse_case", "parse_facility", "CASE_KEYS"]
 
@@ -691,7 +691,21 @@ def parse_case(mapping: Any, base_dir: str | Path = ".", name: str = "case") -> 
     r.finish()
     return Case(prototype=proto, facility=facility, request=request, matrix=matrix,
                 metadata=about, name=about.get("title", name), test=test,
-                propulsion=propulsion)
+                propulsion=propulsion,
+                speed_unit=_speed_unit(doc["prototype"].get("speeds")))
+
+
+def _speed_unit(speeds: Any) -> str:
+    """The unit the user wrote the first prototype speed in ("kn", "m/s", "km/h" ...), kept
+    for showing speeds; "" when it cannot be read (the Case then takes its default)."""
+    first = speeds[0] if isinstance(speeds, list) and speeds else speeds
+    if not isinstance(first, str):
+        return ""
+    try:
+        unit = f"{parse_quantity(first, 'prototype.speeds').units:~}"
+    except BAD_INPUT_ERRORS:
+        return ""
+    return unit.replace(" / ", "/").replace(" ", "")
 
 
 def _cross_checks(r: FieldReader, proto: Prototype, facility: Facility,

@@ -36,15 +36,21 @@ from openpyxl.workbook.properties import CalcProperties
 
 from fluids_props import FluidState, get_fluid
 from similitude.cautions import plan_caution
-from similitude.constants import KNOT
 from similitude.correlations.friction import friction_coefficient
+from similitude.correlations.propeller_scaling import blade_drag_full_scale, blade_drag_model
+from similitude.planning.case import body_class
 from similitude.planning.findings import (
     STATUS_COLOURS,
     STATUS_MEANINGS,
     checks_summary,
     checks_table,
 )
-from similitude.planning.matrix import facility_time_hours, runs_needed
+from similitude.planning.matrix import (
+    SECTION_SPEED_COLUMN,
+    facility_time_hours,
+    reynolds_columns,
+    runs_needed,
+)
 from similitude.planning.planner import Plan
 from similitude.report import formulas
 from similitude.report.atomic import check_target, write_atomic
@@ -96,10 +102,27 @@ TEST_DAY_HEADER_ROW = 18
 PROPERTY_TABLE_SHEET = "Property table"
 PROPERTY_TABLE_STEP = 0.05  # [K]
 PROPERTY_TABLE_SPAN = 40.0  # [K] either side of the planned temperature
+#: Per-run columns of the Test day sheet of a hull (ITTC-1957 friction line).
 TEST_DAY_COLUMNS = ("run", "model speed [m/s]", "model Reynolds number [-]",
                     "ITTC-1957 C_F model [-]", "planned model Reynolds number [-]",
                     "planned ITTC-1957 C_F model [-]", "prototype Reynolds number [-]",
                     "ITTC-1957 C_F prototype [-]", "C_F model - C_F prototype [-]")
+#: Per-run columns of a propeller: the blade-section Reynolds number at 0.7 R and the ITTC-78
+#: blade-section drag, model (a live formula of Re) and full scale (blade roughness 30 um).
+TEST_DAY_PROPELLER_COLUMNS = (
+    "run", "model speed [m/s]", "model rotation rate [1/s]", SECTION_SPEED_COLUMN,
+    "model Reynolds number Re_0.7R [-]", "ITTC-78 blade section drag C_D model [-]",
+    "planned model Reynolds number Re_0.7R [-]", "planned ITTC-78 C_D model [-]",
+    "prototype Reynolds number Re_0.7R [-]", "ITTC-78 blade section drag C_D full scale [-]",
+    "C_D model - C_D full scale [-]")
+#: Per-run columns of a wing, vehicle or bluff body: Reynolds numbers only (no friction line).
+TEST_DAY_BODY_COLUMNS = ("run", "model speed [m/s]", "model Reynolds number [-]",
+                         "planned model Reynolds number [-]", "prototype Reynolds number [-]",
+                         "Re prototype / Re model [-]")
+#: Cells of a propeller's Test day sheet: model blade chord at 0.7 R and its t/c.
+CHORD_CELL = "B16"
+THICKNESS_RATIO_CELL = "B17"
+
 #: Labels (column A) and number formats of the property cells of the Test day sheet.
 TEST_DAY_PROPERTY_CELLS = {
     KELVIN_CELL: ("temperature [K]", "0.00"),
@@ -268,6 +291,8 @@ def _overview_case_rows(ws, plan: Plan, r: int) -> int:
         t = float(np.asarray(fs.temperature_si)) - 273.15
         p = float(np.asarray(fs.pressure_si))
         r = label_row(ws, r, label, f"{fs.fluid} at {t:.2f} degC, {p / 1e3:.4g} kPa")
+    for label, pa in plan.model_pressures.items():
+        r = label_row(ws, r, f"{label} [kPa]", pa / 1e3, "0.000")
     r = label_row(ws, r, "binding constraint", plan.binding_constraint)
     exact = plan.solution.exact or case.request.exact
     r = label_row(ws, r, "groups matched exactly", ", ".join(exact))
@@ -284,7 +309,9 @@ def _overview_design_rows(ws, plan: Plan, r: int) -> int:
         return r
     d = plan.speeds.loc[plan.speeds["prototype speed [m/s]"].idxmax()]
     vp = float(d["prototype speed [m/s]"])
-    r = label_row(ws, r, "design speed, prototype [kn]", vp / KNOT, "0.00")
+    case = plan.case
+    r = label_row(ws, r, f"design speed, prototype [{case.speed_unit}]",
+                  vp / case.speed_unit_factor, "0.00")
     r = label_row(ws, r, "design speed, model [m/s]", float(d["model speed [m/s]"]), "0.000")
     g = plan.groups
     for _, row in g[np.isclose(g["prototype speed [m/s]"], vp)].iterrows():
@@ -475,28 +502,46 @@ def _sheet_test_day(wb, plan: Plan) -> list[LongTable]:
     """
     ws = wb.create_sheet(SHEET_NAMES[6])
     state = plan.model_fluid
-    _test_day_inputs(ws, state)
+    _test_day_inputs(ws, state, _TEST_DAY_WHAT[body_class(plan.case.prototype.kind)])
     valid, table = _test_day_properties(wb, ws, state)
     ws[LENGTH_CELL] = float(plan.model_length)
+    if body_class(plan.case.prototype.kind) == "propeller":
+        ws.cell(row=ws[CHORD_CELL].row, column=1, value="model blade chord at 0.7 R [m]")
+        ws[CHORD_CELL] = _blade_chords(plan)[0]
+        ws[CHORD_CELL].number_format = "0.0000"
+        ws.cell(row=ws[THICKNESS_RATIO_CELL].row, column=1,
+                value="blade thickness/chord t/c at 0.7 R [-]")
+        ws[THICKNESS_RATIO_CELL] = BLADE_THICKNESS_RATIO
+        ws.cell(row=ws[THICKNESS_RATIO_CELL].row, column=3,
+                value="not given by the case: the ITTC-78 factor 2(1 + 2 t/c) is taken as 2")
     for ref, (_, fmt) in TEST_DAY_PROPERTY_CELLS.items():
         ws[ref].number_format = fmt
     if valid is not None:
         _test_day_range_check(ws, valid)
     ws.cell(row=TEST_DAY_HEADER_ROW - 1, column=1,
             value="Per run (the run numbers of the Runs sheet):").font = BOLD
-    runs = _test_day_runs(ws, plan.matrix)
+    runs = _test_day_runs(ws, plan)
     return [runs] if table is None else [runs, table.rows]
 
 
-def _test_day_inputs(ws, state: FluidState) -> None:
+#: What the per-run table of the Test day sheet recomputes, by body class.
+_TEST_DAY_WHAT = {
+    "hull": "the model Reynolds number of every run and its ITTC-1957 friction coefficient",
+    "propeller": ("the blade-section Reynolds number Re_0.7R of every run and its ITTC-78 "
+                  "blade-section drag coefficient"),
+    "body": "the model Reynolds number of every run",
+}
+
+
+def _test_day_inputs(ws, state: FluidState, what: str) -> None:
     """Title, explanation, the temperature input cell, fluid, pressure and the cell labels."""
     fluid = state.fluid
     t_plan = float(np.asarray(state.temperature_si)) - 273.15
     ws.cell(row=1, column=1, value="Test day: enter the measured model-fluid temperature"
             ).font = TITLE_FONT
     ws.cell(row=2, column=1, value=(
-        "The yellow cell is the only input. Density, viscosity, the model Reynolds number of "
-        "every run and its ITTC-1957 friction coefficient below are formulas of it"
+        f"The yellow cell is the only input. Density, viscosity, {what} below are formulas "
+        "of it"
         + (" (the program's closed-form correlation)." if formulas.supports(fluid) else
            f" ({fluid}: linear interpolation in the '{PROPERTY_TABLE_SHEET}' sheet, "
            "tabulated from the program's correlation every "
@@ -565,26 +610,83 @@ def _test_day_range_check(ws, valid: tuple[float, float]) -> None:
     ws.cell(row=ws[RANGE_CHECK_CELL].row, column=3, value=f"valid {lo:g} to {hi:g} degC")
 
 
-def _test_day_runs(ws, matrix) -> LongTable:
-    """The per-run table: model Re and C_F as formulas of the property cells, planned and
-    prototype values beside them."""
+def _test_day_runs(ws, plan: Plan) -> LongTable:
+    """The per-run table: the model Reynolds number (and, where one applies, its friction or
+    blade-drag coefficient) as formulas of the property cells, planned and prototype values
+    beside them (:data:`TEST_DAY_COLUMNS`, :data:`TEST_DAY_PROPELLER_COLUMNS`,
+    :data:`TEST_DAY_BODY_COLUMNS` by the body's class)."""
+    matrix = plan.matrix
+    kind = body_class(plan.case.prototype.kind)
+    re_col, re_p_col = reynolds_columns(plan.case)
     vm = matrix["model speed [m/s]"].to_numpy(dtype=float)
-    re_plan = matrix["model Reynolds number [-]"].to_numpy(dtype=float)
-    re_p = matrix["prototype Reynolds number [-]"].to_numpy(dtype=float)
-    cf_plan, cf_p = _cf(re_plan), _cf(re_p)
-    values = (matrix["run"].to_numpy(), vm, re_plan, cf_plan, re_plan, cf_plan, re_p, cf_p,
-              cf_plan - cf_p)
-    df = pd.DataFrame(dict(zip(TEST_DAY_COLUMNS, values, strict=True)))
-    table = long_table(ws, df, TEST_DAY_HEADER_ROW)
+    re_plan = matrix[re_col].to_numpy(dtype=float)
+    re_p = matrix[re_p_col].to_numpy(dtype=float)
     kin = absolute_coordinate(KINEMATIC_CELL)
-    length = absolute_coordinate(LENGTH_CELL)
-    table.set_formula(2, lambda r: f'IF(B{r}>0,B{r}*{length}/{kin},"")')   # Re = V L / nu
-    table.set_formula(3, lambda r: f'IF(B{r}>0,0.075/(LOG10(C{r})-2)^2,"")')  # ITTC-1957
-    table.set_formula(8, lambda r: f'IF(B{r}>0,D{r}-H{r},"")')
+    run = matrix["run"].to_numpy()
+    if kind == "propeller":
+        tc = absolute_coordinate(THICKNESS_RATIO_CELL)
+        chord = absolute_coordinate(CHORD_CELL)
+        cd_plan = _cd_model(re_plan)
+        cd_p = np.full(re_p.shape, _cd_full_scale(plan))
+        values = (run, vm, matrix["model rotation rate [1/s]"].to_numpy(dtype=float),
+                  matrix[SECTION_SPEED_COLUMN].to_numpy(dtype=float), re_plan, cd_plan,
+                  re_plan, cd_plan, re_p, cd_p, cd_plan - cd_p)
+        df = pd.DataFrame(dict(zip(TEST_DAY_PROPELLER_COLUMNS, values, strict=True)))
+        table = long_table(ws, df, TEST_DAY_HEADER_ROW)
+        # Re_0.7R = section speed x chord / nu; ITTC-78 C_DM = 2(1 + 2 t/c)(0.044 Re^-1/6 -
+        # 5 Re^-2/3)
+        table.set_formula(4, lambda r: f'IF(D{r}>0,D{r}*{chord}/{kin},"")')
+        table.set_formula(5, lambda r: f'IF(E{r}>0,2*(1+2*{tc})*(0.044*E{r}^(-1/6)'
+                          f'-5*E{r}^(-2/3)),"")')
+        table.set_formula(10, lambda r: f'IF(E{r}>0,F{r}-J{r},"")')
+    elif kind == "hull":
+        cf_plan, cf_p = _cf(re_plan), _cf(re_p)
+        values = (run, vm, re_plan, cf_plan, re_plan, cf_plan, re_p, cf_p, cf_plan - cf_p)
+        df = pd.DataFrame(dict(zip(TEST_DAY_COLUMNS, values, strict=True)))
+        table = long_table(ws, df, TEST_DAY_HEADER_ROW)
+        length = absolute_coordinate(LENGTH_CELL)
+        table.set_formula(2, lambda r: f'IF(B{r}>0,B{r}*{length}/{kin},"")')   # Re = V L / nu
+        table.set_formula(3, lambda r: f'IF(B{r}>0,0.075/(LOG10(C{r})-2)^2,"")')  # ITTC-1957
+        table.set_formula(8, lambda r: f'IF(B{r}>0,D{r}-H{r},"")')
+    else:
+        values = (run, vm, re_plan, re_plan, re_p, re_p / re_plan)
+        df = pd.DataFrame(dict(zip(TEST_DAY_BODY_COLUMNS, values, strict=True)))
+        table = long_table(ws, df, TEST_DAY_HEADER_ROW)
+        length = absolute_coordinate(LENGTH_CELL)
+        table.set_formula(2, lambda r: f'IF(B{r}>0,B{r}*{length}/{kin},"")')   # Re = V L / nu
+        table.set_formula(5, lambda r: f'IF(C{r}>0,E{r}/C{r},"")')
     ws.freeze_panes = f"A{TEST_DAY_HEADER_ROW + 1}"
-    ws.auto_filter.ref = f"A{TEST_DAY_HEADER_ROW}:I{TEST_DAY_HEADER_ROW + len(df)}"
+    ws.auto_filter.ref = table_range(TEST_DAY_HEADER_ROW, len(df.columns),
+                                     TEST_DAY_HEADER_ROW + len(df))
     widen(ws, {"A": 44, "B": 16})
     return table
+
+
+def _blade_chords(plan: Plan) -> tuple[float, float]:
+    """(model, full-scale) blade chord at 0.7 R [m] of a propeller: the one its groups use
+    (``blade_chord``, else the diameter)."""
+    proto = plan.case.prototype
+    c_p = float(proto.dimension("blade_chord", proto.dimension("diameter", proto.length)))
+    return c_p / plan.scale, c_p
+
+
+#: Blade thickness over chord t/c used in the ITTC-78 section drag of the Test day sheet [-]
+#: (the case gives no blade thickness; 0 leaves the factor 2(1 + 2 t/c) at 2).
+BLADE_THICKNESS_RATIO = 0.0
+
+
+def _cd_model(re_values):
+    """ITTC-78 model blade-section drag C_DM [-] where Re > 100, NaN elsewhere."""
+    out = np.full(np.shape(re_values), np.nan)
+    ok = np.isfinite(re_values) & (re_values > 100)
+    if ok.any():
+        out[ok] = blade_drag_model(BLADE_THICKNESS_RATIO, re_values[ok])
+    return out
+
+
+def _cd_full_scale(plan: Plan) -> float:
+    """ITTC-78 full-scale blade-section drag C_DS [-] (blade roughness 30 um)."""
+    return float(blade_drag_full_scale(BLADE_THICKNESS_RATIO, _blade_chords(plan)[1]))
 
 
 def _property_table(wb, state: FluidState) -> _PropertyTable | None:
@@ -674,30 +776,50 @@ def _temperature_range(fluid: str):
 
 # -- Charts ---------------------------------------------------------------------------------
 def _sheet_charts(wb, plan: Plan) -> None:
-    """The speed table, the friction line under it, and the two charts below both."""
+    """The speed table, the friction line under it (a hull: ITTC-1957; a propeller: the
+    ITTC-78 blade-section drag; none for a wing or body), and the charts below both."""
     ws = wb.create_sheet(SHEET_NAMES[7])
-    n, re_m, re_p = _speed_table(ws, plan.matrix)
+    kind = body_class(plan.case.prototype.kind)
+    n, re_m, re_p = _speed_table(ws, plan, kind)
     line_header = n + 4
-    ng = _friction_line_table(ws, re_m, re_p, line_header)
+    ng = _friction_line_table(ws, re_m, re_p, line_header, kind) if kind != "body" else 0
     ws.freeze_panes = "A2"
     fit_widths(ws, rows=range(1, line_header + ng + 1))
     fit_row_height(ws, 1)
-    fit_row_height(ws, line_header)
-    below = chart_below(ws, _reynolds_chart(ws, n), line_header + ng)
-    chart_below(ws, _friction_chart(ws, n, ng, line_header), below, gap=1)
+    if ng:
+        fit_row_height(ws, line_header)
+    below = chart_below(ws, _reynolds_chart(ws, n, plan.case),
+                        line_header + ng if ng else n + 2)
+    if ng:
+        chart_below(ws, _friction_chart(ws, n, ng, line_header, kind), below, gap=1)
 
 
-def _speed_table(ws, matrix):
-    """One row per prototype speed in columns A-F; returns (rows, model Re, prototype Re)."""
+#: Header of the model and full-scale coefficients of the Charts sheet, by body class.
+_CHART_COEFFICIENTS = {
+    "hull": ("ITTC-1957 C_F model [-]", "ITTC-1957 C_F prototype [-]"),
+    "propeller": ("ITTC-78 blade section drag C_D model [-]",
+                  "ITTC-78 blade section drag C_D full scale [-]"),
+}
+
+
+def _speed_table(ws, plan: Plan, kind: str):
+    """One row per prototype speed in columns A-F (A-D for a body); returns (rows, model Re,
+    prototype Re)."""
+    matrix, case = plan.matrix, plan.case
+    re_col, re_p_col = reynolds_columns(case)
+    speed_col = case.speed_header if case.speed_header in matrix else "prototype speed [m/s]"
     by = matrix.groupby("prototype speed [m/s]", sort=True).first().reset_index()
-    headers = ["prototype speed [kn]", "model speed [m/s]", "model Reynolds number [-]",
-               "prototype Reynolds number [-]", "ITTC-1957 C_F model [-]",
-               "ITTC-1957 C_F prototype [-]"]
+    re_m = by[re_col].to_numpy(dtype=float)
+    re_p = by[re_p_col].to_numpy(dtype=float)
+    headers = [speed_col, "model speed [m/s]", re_col, re_p_col]
+    cols = [by[speed_col].to_numpy(float), by["model speed [m/s]"].to_numpy(float), re_m, re_p]
+    if kind == "hull":
+        headers += list(_CHART_COEFFICIENTS[kind])
+        cols += [_cf(re_m), _cf(re_p)]
+    elif kind == "propeller":
+        headers += list(_CHART_COEFFICIENTS[kind])
+        cols += [_cd_model(re_m), np.full(re_p.shape, _cd_full_scale(plan))]
     header_row(ws, 1, headers)
-    re_m = by["model Reynolds number [-]"].to_numpy(dtype=float)
-    re_p = by["prototype Reynolds number [-]"].to_numpy(dtype=float)
-    cols = [by["prototype speed [kn]"].to_numpy(float), by["model speed [m/s]"].to_numpy(float),
-            re_m, re_p, _cf(re_m), _cf(re_p)]
     for j, (h, col) in enumerate(zip(headers, cols, strict=True), 1):
         fmt = number_format(h, col)
         for i, v in enumerate(col):
@@ -705,24 +827,32 @@ def _speed_table(ws, matrix):
     return len(by), re_m, re_p
 
 
-def _friction_line_table(ws, re_m, re_p, header: int) -> int:
-    """The ITTC-1957 line over the Reynolds numbers of model and ship, in columns A-B from
-    row ``header``; returns its number of rows."""
+def _friction_line_table(ws, re_m, re_p, header: int, kind: str) -> int:
+    """The ITTC-1957 line (a hull) or the ITTC-78 model blade-section drag (a propeller) over
+    the Reynolds numbers of model and full scale, in columns A-B from row ``header``; returns
+    its number of rows."""
     lo = math.floor(math.log10(max(np.nanmin(re_m[re_m > 0]) if (re_m > 0).any() else 1e5,
                                    1e4)))
     hi = math.ceil(math.log10(max(np.nanmax(re_p) if np.isfinite(re_p).any() else 1e9, 1e6)))
     grid = np.logspace(lo, hi, 8 * (hi - lo) + 1)
-    ws.cell(row=header - 1, column=1, value="ITTC-1957 friction line").font = BOLD
-    header_row(ws, header, ["Reynolds number [-]", "ITTC-1957 C_F [-]"])
-    for i, (rv, cv) in enumerate(zip(grid, friction_coefficient(grid), strict=True)):
+    if kind == "propeller":
+        title, heads = ("ITTC-78 model blade-section drag",
+                        ["Reynolds number Re_0.7R [-]", "ITTC-78 C_D model [-]"])
+        line = _cd_model(grid)
+    else:
+        title, heads = "ITTC-1957 friction line", ["Reynolds number [-]", "ITTC-1957 C_F [-]"]
+        line = friction_coefficient(grid)
+    ws.cell(row=header - 1, column=1, value=title).font = BOLD
+    header_row(ws, header, heads)
+    for i, (rv, cv) in enumerate(zip(grid, line, strict=True)):
         ws.cell(row=header + 1 + i, column=1, value=float(rv)).number_format = "0.00E+00"
-        ws.cell(row=header + 1 + i, column=2, value=float(cv)).number_format = "0.00000"
+        ws.cell(row=header + 1 + i, column=2, value=cell_value(cv)).number_format = "0.00000"
     return len(grid)
 
 
-def _reynolds_chart(ws, n: int):
-    ch = scatter_chart("Model and full-scale Reynolds numbers", "prototype speed [kn]",
-                       "Reynolds number [-]")
+def _reynolds_chart(ws, n: int, case):
+    x_title = case.speed_header if case.speed_unit != "m/s" else "prototype speed [m/s]"
+    ch = scatter_chart("Model and full-scale Reynolds numbers", x_title, "Reynolds number [-]")
     ch.y_axis.scaling.logBase = 10
     ch.y_axis.number_format = "0E+00"
     for col, name in ((3, "model"), (4, "prototype")):
@@ -730,13 +860,18 @@ def _reynolds_chart(ws, n: int):
     return ch
 
 
-def _friction_chart(ws, n: int, ng: int, header: int):
-    fc = scatter_chart("ITTC-1957 friction line with model and ship points",
-                       "Reynolds number [-]", "C_F [-]")
+def _friction_chart(ws, n: int, ng: int, header: int, kind: str):
+    if kind == "propeller":
+        title = "ITTC-78 blade-section drag: model line, model and full-scale points"
+        y_title, line_title, full = "C_D [-]", "ITTC-78 model C_D", "full scale"
+    else:
+        title = "ITTC-1957 friction line with model and ship points"
+        y_title, line_title, full = "C_F [-]", "ITTC-1957 line", "ship"
+    fc = scatter_chart(title, "Reynolds number [-]", y_title)
     fc.x_axis.scaling.logBase = 10
     fc.x_axis.number_format = "0E+00"
-    add_series(fc, ws, 1, 2, header + 1, header + ng, "ITTC-1957 line", colour="000000")
-    for xcol, ycol, name, colour in ((3, 5, "model", "4472C4"), (4, 6, "ship", "C0504D")):
+    add_series(fc, ws, 1, 2, header + 1, header + ng, line_title, colour="000000")
+    for xcol, ycol, name, colour in ((3, 5, "model", "4472C4"), (4, 6, full, "C0504D")):
         add_series(fc, ws, xcol, ycol, 2, 1 + n, name, points=True, colour=colour)
     return fc
 

@@ -18,7 +18,10 @@ import pandas as pd
 
 from similitude.constants import G0
 from similitude.correlations.friction import MIN_TURBULENT_MODEL_REYNOLDS, friction_coefficient
+from similitude.correlations.propeller_scaling import blade_drag_full_scale, blade_drag_model
 from similitude.errors import InputError
+from similitude.planning.case import body_class
+from similitude.planning.matrix import reynolds_columns
 from similitude.planning.planner import Plan
 from similitude.report.atomic import write_atomic
 from similitude.units import format_scale
@@ -157,24 +160,59 @@ def _draw_window(plan: Plan, ax) -> None:
 
 
 def _draw_reynolds(plan: Plan, ax) -> None:
-    m = plan.matrix
+    """Model and full-scale Reynolds numbers: on the ITTC-1957 line for a hull, on the ITTC-78
+    model blade-section drag for a propeller (Re_0.7R), against speed for a wing or body
+    (no friction line applies to them)."""
+    m, case = plan.matrix, plan.case
+    kind = body_class(case.prototype.kind)
+    re_col, re_p_col = reynolds_columns(case)
     by = m.groupby("prototype speed [m/s]", sort=True).first().reset_index()
-    re_m = by["model Reynolds number [-]"].to_numpy(float)
-    re_p = by["prototype Reynolds number [-]"].to_numpy(float)
+    re_m = by[re_col].to_numpy(float)
+    re_p = by[re_p_col].to_numpy(float)
     ok_m, ok_p = re_m > 100, re_p > 100
+    if kind == "body":
+        col = case.speed_header if case.speed_header in by else "prototype speed [m/s]"
+        v = by[col].to_numpy(float)
+        ax.plot(v[ok_m], re_m[ok_m], "o-", lw=2.5, label="model")
+        ax.plot(v[ok_p], re_p[ok_p], "s--", label="full scale")
+        ax.set_yscale("log")
+        ax.set_xlabel(col)
+        ax.set_ylabel("Reynolds number Re = V L / nu [-]")
+        ax.set_title("Model and full-scale Reynolds numbers")
+        ax.legend()
+        ax.grid(True, which="both", alpha=0.3)
+        return
     lo = math.floor(math.log10(max(1e4, re_m[ok_m].min() if ok_m.any() else 1e5))) - 0.5
     hi = math.ceil(math.log10(re_p[ok_p].max() if ok_p.any() else 1e9)) + 0.5
     grid = np.logspace(lo, hi, 200)
-    ax.plot(grid, friction_coefficient(grid), color="0.2", label="ITTC-1957 line")
-    ax.plot(re_m[ok_m], friction_coefficient(re_m[ok_m]), "o", label="model")
-    ax.plot(re_p[ok_p], friction_coefficient(re_p[ok_p]), "s", label="full scale")
-    for rm, rp in zip(re_m[ok_m & ok_p], re_p[ok_m & ok_p], strict=True):
-        ax.annotate("", xy=(rp, friction_coefficient(rp)), xytext=(rm, friction_coefficient(rm)),
+    if kind == "propeller":
+        chord = float(case.prototype.dimension("blade_chord", case.prototype.dimension(
+            "diameter", case.prototype.length)))
+        def model(re):  # t/c is not given by a case: the factor 2(1 + 2 t/c) is 2
+            return blade_drag_model(0.0, re)
+
+        full = np.full(re_p.shape, float(blade_drag_full_scale(0.0, chord)))
+        line_label, y_label = "ITTC-78 model blade-section drag", "C_D [-]"
+        x_label = "blade-section Reynolds number Re_0.7R [-]"
+        title = "Model and full-scale blade-section drag (ITTC-78)"
+        grid = grid[grid > 1e4]  # the model formula goes negative far below 1e5
+    else:
+        model = friction_coefficient
+        full = friction_coefficient(np.where(ok_p, re_p, 1e9))
+        line_label, y_label = "ITTC-1957 line", "C_F [-]"
+        x_label = "Reynolds number Re = V L / nu [-]"
+        title = "Model and full-scale Re on the friction line"
+    ax.plot(grid, model(grid), color="0.2", label=line_label)
+    ax.plot(re_m[ok_m], model(re_m[ok_m]), "o", label="model")
+    ax.plot(re_p[ok_p], full[ok_p], "s", label="full scale")
+    for rm, rp, cf in zip(re_m[ok_m & ok_p], re_p[ok_m & ok_p], full[ok_m & ok_p],
+                          strict=True):
+        ax.annotate("", xy=(rp, cf), xytext=(rm, float(model(rm))),
                     arrowprops={"arrowstyle": "->", "color": "0.6", "lw": 0.8})
     ax.set_xscale("log")
-    ax.set_xlabel("Reynolds number Re = V L / nu [-]")
-    ax.set_ylabel("C_F [-]")
-    ax.set_title("Model and full-scale Re on the friction line")
+    ax.set_xlabel(x_label)
+    ax.set_ylabel(y_label)
+    ax.set_title(title)
     ax.legend()
     ax.grid(True, which="both", alpha=0.3)
 

@@ -216,8 +216,8 @@ def test_cavitation_tunnel_pressure_is_checked_against_its_range():
                    fluids=("fresh_water",), pressure_range=(5e3, 2e5))
     found = checks_of(Case(proto, fac, MatchRequest(exact=("advance_ratio", "cavitation"),
                                                     report=())))
-    hi = found["tunnel static pressure at the model vs facility maximum"]
-    lo = found["tunnel static pressure at the model vs facility minimum"]
+    hi = found["static pressure at the shaft centre vs facility maximum"]
+    lo = found["static pressure at the shaft centre vs facility minimum"]
     # The search keeps the pressure inside the range; an end it sits on shows "at limit".
     assert {hi.status, lo.status} <= {"ok", "at limit"}
     assert hi.limit == 2e5 and lo.limit == 5e3

@@ -107,6 +107,18 @@ def _wind_tunnel_plan():
     return sim.plan(Case(proto, fac, request=req, matrix=MatrixSpec(repeats=2)))
 
 
+def _propeller_plan():
+    fac = Facility("cavitation_tunnel", "tunnel (invented)", 2.6, 0.6, 0.6, (1.0, 12.0),
+                   temperature_range=(285.15, 301.15), pressure_range=(8e3, 2e5),
+                   max_rotation_rate=50.0)
+    proto = Prototype("propeller", 4.2, (5.5, 6.5), FluidSpec("sea_water", 288.15),
+                      dimensions={"diameter": 4.2, "blade_chord": 1.3},
+                      rotation_rates=(1.75, 2.0), immersion=5.2)
+    req = MatchRequest(exact=("advance_ratio", "cavitation"), report=("reynolds",),
+                       model_length=0.25)
+    return sim.plan(Case(proto, fac, request=req))
+
+
 def _rel(a, b):
     return abs(float(a) / float(b) - 1.0)
 
@@ -126,10 +138,44 @@ def _check_recalculated(wb, plan, celsius):
     if state.vapour_pressure_si is not None:
         assert _rel(ws[plan_workbook.VAPOUR_PRESSURE_CELL].value, state.vapour_pressure_si) <= REL
         assert _rel(ws[plan_workbook.SURFACE_TENSION_CELL].value, state.surface_tension_si) <= REL
+    _check_runs(ws, plan, nu)
+
+
+def _columns(ws):
+    """Header -> 0-based column index of the per-run table."""
+    head = next(ws.iter_rows(min_row=plan_workbook.TEST_DAY_HEADER_ROW,
+                             max_row=plan_workbook.TEST_DAY_HEADER_ROW, values_only=True))
+    return {h: j for j, h in enumerate(head) if h}
+
+
+def _check_runs(ws, plan, nu):
+    """Each run's live Reynolds number (and friction or blade-drag coefficient) against a
+    hand calculation at the new viscosity."""
     m = plan.matrix
+    col = _columns(ws)
     first = plan_workbook.TEST_DAY_HEADER_ROW + 1
     rows = list(ws.iter_rows(min_row=first, max_row=first + len(m) - 1, values_only=True))
     assert len(rows) == len(m)
+    if plan.case.prototype.kind == "propeller":
+        # Re_0.7R = c_m sqrt(V^2 + (0.7 pi n D_m)^2)/nu; ITTC-78 C_DM = 2(0.044 Re^-1/6 -
+        # 5 Re^-2/3) with t/c = 0 (ITTC 7.5-02-03-01.4, blade-drag correction)
+        proto = plan.case.prototype
+        d_m = proto.dimension("diameter") / plan.scale
+        c_m = proto.dimension("blade_chord") / plan.scale
+        for row, vm, n in zip(rows, m["model speed [m/s]"], m["model rotation rate [1/s]"],
+                              strict=True):
+            re_m = c_m * math.hypot(vm, 0.7 * math.pi * n * d_m) / nu
+            cd_m = 2 * (0.044 * re_m ** (-1 / 6) - 5 * re_m ** (-2 / 3))
+            assert _rel(row[col["model Reynolds number Re_0.7R [-]"]], re_m) <= REL
+            assert _rel(row[col["ITTC-78 blade section drag C_D model [-]"]], cd_m) <= REL
+        return
+    if "ITTC-1957 C_F model [-]" not in col:  # a wing or body: Reynolds numbers only
+        for row, vm, re_p in zip(rows, m["model speed [m/s]"],
+                                 m["prototype Reynolds number [-]"], strict=True):
+            re_m = vm * plan.model_length / nu
+            assert _rel(row[col["model Reynolds number [-]"]], re_m) <= REL
+            assert _rel(row[col["Re prototype / Re model [-]"]], re_p / re_m) <= REL
+        return
     for row, vm, re_p in zip(rows, m["model speed [m/s]"], m["prototype Reynolds number [-]"],
                              strict=True):
         re_m = vm * plan.model_length / nu
@@ -182,6 +228,14 @@ def test_air_workbook_recalculates_at_a_new_test_day_temperature(tmp_path):
     _set_test_day_temperature(path, t)
     wb = _recalculate(path, tmp_path)
     _check_recalculated(wb, plan, t)
+
+
+def test_propeller_workbook_recalculates_blade_reynolds_and_blade_drag(tmp_path):
+    plan = _propeller_plan()
+    path = plan_workbook.write_plan(plan, tmp_path / "propeller.xlsx")
+    _set_test_day_temperature(path, 17.5)
+    wb = _recalculate(path, tmp_path)
+    _check_recalculated(wb, plan, 17.5)
 
 
 def test_temperature_outside_the_correlation_range_is_flagged(tmp_path):

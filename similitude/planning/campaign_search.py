@@ -34,22 +34,23 @@ import numpy as np
 
 from similitude.errors import InfeasibleError, InputError, OutOfRangeError
 from similitude.planning.campaign import Campaign, CampaignTest
-from similitude.planning.candidates import build_problem, model_groups
+from similitude.planning.candidates import build_problem, model_groups, prototype_state
 from similitude.planning.facilities import Facility
-from similitude.planning.matrix import build_matrix, facility_time_hours
+from similitude.planning.matrix import facility_time_hours, matrix_columns
 from similitude.planning.scale_window import (
     ScalePoint,
     ScaleWindow,
     model_at_scale,
     scale_window,
+    state_grids,
 )
 from similitude.planning.solver import convenient_scale
 from similitude.units import format_scale
 
 #: Largest number of facility combinations of one scale group searched exhaustively.
-MAX_COMBINATIONS = 200_000
+MAX_COMBINATIONS = 20_000
 #: Combinations re-evaluated exactly at their shared, rounded scale before the choice.
-EXACT_COMBINATIONS = 8
+EXACT_COMBINATIONS = 6
 #: Convenient scales tried above the limiting one before it is kept as it is.
 ROUNDING_TRIES = 3
 #: Checks listed as a candidate's key margins (the tightest ones).
@@ -139,13 +140,28 @@ def evaluate_candidates(test: CampaignTest) -> tuple[CandidateFacility, ...]:
         When the test cannot be planned in any of its candidates for the same reason (a
         problem of the test itself, not of a facility).
     """
-    out = []
     errors = []
-    for k, (fac, file) in enumerate(zip(test.facilities, test.facility_files, strict=True)):
-        case = test.case_in(fac)
+    try:  # one prototype in every candidate facility: its fluid state once
+        state = prototype_state(test.case)
+    except (InputError, OutOfRangeError):
+        state = None  # the problem is reported by each candidate below
+    problems: list = []
+    for fac in test.facilities:
         try:
-            prob = build_problem(case)
-            window = scale_window(case, prob)
+            problems.append(build_problem(test.case_in(fac), state))
+        except (InputError, OutOfRangeError) as exc:
+            errors.append(exc)
+            problems.append(exc)
+    # the model-fluid properties of every candidate's state grid in one call per fluid
+    grids = iter(state_grids([p for p in problems if not isinstance(p, Exception)]))
+    out = []
+    for k, (fac, file, prob) in enumerate(zip(test.facilities, test.facility_files, problems,
+                                              strict=True)):
+        if isinstance(prob, Exception):
+            out.append(CandidateFacility(test, k, fac, file, None, refused=_text(prob)))
+            continue
+        try:
+            window = scale_window(prob.case, prob, states=next(grids))
         except (InputError, OutOfRangeError) as exc:
             errors.append(exc)
             out.append(CandidateFacility(test, k, fac, file, None, refused=_text(exc)))
@@ -176,7 +192,7 @@ def _with_figures(cand: CandidateFacility, window: ScaleWindow) -> CandidateFaci
 def hours_at(case, point: ScalePoint) -> float:
     """Facility time [h] of the run matrix of ``case`` for the model ``point``."""
     try:
-        return facility_time_hours(build_matrix(case, point.solution))
+        return facility_time_hours(matrix_columns(case, point.solution)[0])
     except InputError:  # a matrix the facility cannot run (too many rows): no figure
         return math.nan
 
@@ -410,11 +426,12 @@ def choose_facilities(group: ScaleGroup, candidates: dict[str, tuple[CandidateFa
         raise InfeasibleError("\n".join(_no_overlap_lines(group, lists, idx, low_m, high_m)))
     hours = sum(np.array([c.hours for c in cands])[i] for cands, i in zip(lists, idx,
                                                                            strict=True))
+    # the shared scales are the tests' own largest-model ends: few distinct values
+    shared, where = np.unique(low, return_inverse=True)
     mis = np.zeros(low.size)
     for cands, i in zip(lists, idx, strict=True):
-        for k, c in enumerate(cands):  # each window's mismatch curve at the shared scales
-            at = i == k
-            mis[at] += c.window.mismatch_at(low[at])
+        table = np.array([c.window.mismatch_at(shared) for c in cands])
+        mis += table[i, np.ravel(where)]
     ids: dict[Facility, int] = {}
     fac = np.stack([np.array([ids.setdefault(c.facility, len(ids)) for c in cands])[i]
                     for cands, i in zip(lists, idx, strict=True)])
@@ -424,10 +441,20 @@ def choose_facilities(group: ScaleGroup, candidates: dict[str, tuple[CandidateFa
     keys = {"largest_model": (mis, hours, count, np.log(low)),
             "least_mismatch": (hours, np.log(low), count, mis),
             "fewest_hours": (mis, np.log(low), count, hours)}[objective]
-    order = np.lexsort(tuple(np.where(ok, k, np.inf) for k in keys))
+    keys = tuple(np.where(ok, k, np.inf) for k in keys)
+    # only the best few are needed: sort the combinations whose primary figure is within
+    # the EXACT_COMBINATIONS best (ties included), not all of them
+    primary = keys[-1]
+    if primary.size > EXACT_COMBINATIONS:
+        cut = np.partition(primary, EXACT_COMBINATIONS - 1)[EXACT_COMBINATIONS - 1]
+        near = np.flatnonzero(primary <= cut)
+    else:
+        near = np.arange(primary.size)
+    order = near[np.lexsort(tuple(k[near] for k in keys))]
     order = order[ok[order]][:EXACT_COMBINATIONS]
+    memo: dict = {}  # (test, facility, scale) -> (model, hours): combinations share tests
     exact = [_exact(group, [lists[t][idx[t, j]] for t in range(len(lists))],
-                    low_m[:, j], high_m[:, j]) for j in order]
+                    low_m[:, j], high_m[:, j], memo) for j in order]
     exact = [e for e in exact if e is not None]
     if not exact:
         raise InfeasibleError(f"models {group.label()}: no combination of facilities gives a "
@@ -450,7 +477,7 @@ def _pruned(lists, objective: str):
     return lists
 
 
-def _exact(group: ScaleGroup, cands, lows, highs) -> Combination | None:
+def _exact(group: ScaleGroup, cands, lows, highs, memo: dict) -> Combination | None:
     """A combination evaluated at its shared, rounded scale; None when no scale of the shared
     window meets every limit of every test (a window that is not one interval)."""
     low, high = float(lows.max()), float(highs.min())
@@ -460,17 +487,20 @@ def _exact(group: ScaleGroup, cands, lows, highs) -> Combination | None:
     for lam in tries:
         if not (math.isfinite(lam) and low * (1 - 1e-12) <= lam <= high * (1 + 1e-9)):
             continue
-        points = []
+        done = []
         for c in cands:
-            pt = model_at_scale(c.window.case, lam, c.window.largest.problem)
-            if not pt.admissible:
+            key = (c.test.name, c.index, lam)
+            if key not in memo:
+                pt = model_at_scale(c.window.case, lam, c.window.largest.problem)
+                memo[key] = (pt, hours_at(c.window.case, pt) if pt.admissible else math.nan)
+            if not memo[key][0].admissible:
                 break
-            points.append(pt)
+            done.append(memo[key])
         else:
-            hours = tuple(hours_at(c.window.case, pt) for c, pt in
-                          zip(cands, points, strict=True))
-            return Combination(tuple(cands), low, high, low_by, high_by, lam, tuple(points),
-                               hours, float(sum(pt.mismatch for pt in points)))
+            points = tuple(pt for pt, _ in done)
+            return Combination(tuple(cands), low, high, low_by, high_by, lam, points,
+                               tuple(h for _, h in done),
+                               float(sum(pt.mismatch for pt in points)))
     return None
 
 

@@ -550,13 +550,16 @@ class TooManyResiduals(InputError):
     """More exact groups to solve through the fluid state than the solver handles (one)."""
 
 
-def build_problem(case: Case) -> Problem:
-    """Check the request against the degrees of freedom and set up the search."""
+def build_problem(case: Case, prototype_fluid: FluidState | None = None) -> Problem:
+    """Check the request against the degrees of freedom and set up the search.
+
+    ``prototype_fluid``: the prototype's fluid state (:func:`prototype_state`) when the caller
+    has it already (one prototype in many candidate facilities of a campaign)."""
     req, proto = case.request, case.prototype
     _check_request(case)
     propeller = proto.kind == "propeller"
     options = _fluid_options(case)
-    pside = prototype_side(case)
+    pside = prototype_side(case, prototype_fluid)
     pgroups = {}
     for key in set(req.exact) | set(req.report) | {"froude", "reynolds"}:
         pgroups[key] = np.asarray(group_value(key, pside, propeller), dtype=float)

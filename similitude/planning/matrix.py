@@ -56,8 +56,8 @@ DEFAULT_TUNNEL_DWELL = 60.0  # [s]
 DEFAULT_SEA_DURATION = 3.0 * 3600.0  # [s] full scale
 
 
-def build_matrix(case: Case, solution: Solution) -> pd.DataFrame:
-    """The run matrix of a case for a solved scale and speed ratio.
+def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
+    """The run matrix of a case for a solved scale and speed ratio, as columns.
 
     Parameters
     ----------
@@ -69,13 +69,14 @@ def build_matrix(case: Case, solution: Solution) -> pd.DataFrame:
 
     Returns
     -------
-    pandas.DataFrame
-        One row per run (speeds x loading x headings x waves x repeats, in that nesting
-        order, repeats innermost). Columns carry units in brackets: run identification,
-        prototype and model speeds, Froude and Reynolds numbers, loading and wave values at
-        both scales, encounter counts, run time, run distance, waiting time, the number of
-        runs each row needs and its facility time. ``DataFrame.attrs["notes"]`` lists the
-        defaults assumed.
+    tuple
+        (columns, notes): the columns (header -> array, one row per run: speeds x loading x
+        headings x waves x repeats, in that nesting order, repeats innermost) carry units in
+        brackets: run identification, prototype and model speeds, Froude and Reynolds numbers,
+        loading and wave values at both scales, encounter counts, run time, run distance,
+        waiting time, the number of runs each row needs and its facility time; the notes list
+        the defaults assumed. :func:`facility_time_hours` takes the columns as they are (the
+        facility hours of a candidate model without building a table).
 
     Raises
     ------
@@ -135,9 +136,23 @@ def build_matrix(case: Case, solution: Solution) -> pd.DataFrame:
     cols["waiting time [s]"] = np.full(n, wait)
     cols["runs needed [-]"] = runs_needed
     cols["facility time [s]"] = runs_needed * (t_run + t_overhead + wait)
+    return cols, notes
+
+
+def build_matrix(case: Case, solution: Solution) -> pd.DataFrame:
+    """The run matrix of a case for a solved scale and speed ratio (:func:`matrix_columns`
+    as a DataFrame).
+
+    Returns
+    -------
+    pandas.DataFrame
+        One row per run; ``DataFrame.attrs["notes"]`` lists the defaults assumed and
+        ``attrs["scale"]`` holds lambda.
+    """
+    cols, notes = matrix_columns(case, solution)
     df = pd.DataFrame(cols)
     df.attrs["notes"] = tuple(notes)
-    df.attrs["scale"] = scale
+    df.attrs["scale"] = float(solution.scale)
     return df
 
 
@@ -417,8 +432,8 @@ def facility_time_hours(matrix) -> float:
 
     Parameters
     ----------
-    matrix : pandas.DataFrame
-        As returned by :func:`build_matrix`.
+    matrix : pandas.DataFrame or dict
+        As returned by :func:`build_matrix`, or the columns of :func:`matrix_columns`.
 
     Returns
     -------
@@ -427,5 +442,5 @@ def facility_time_hours(matrix) -> float:
     """
     if "facility time [s]" in matrix:
         return float(matrix["facility time [s]"].sum()) / 3600.0
-    total = matrix["run time [s]"].fillna(0).sum() + matrix["waiting time [s]"].fillna(0).sum()
+    total = np.nansum(matrix["run time [s]"]) + np.nansum(matrix["waiting time [s]"])
     return float(total) / 3600.0

@@ -5,10 +5,12 @@ whole scale axis at once: a log-spaced grid of scales lambda = L_p / L_m [-], ea
 the model-fluid states the facility can set (fluid, temperature, pressure; a further exact group
 solved through the fluid state as the solver does), in one vectorised evaluation per fluid. A
 scale is admissible when some state meets every limit. The first and last admissible grid
-scales are then narrowed by batched bracketing (both ends in one array evaluation a round) to
-:data:`END_TOLERANCE`; the returned ends are always admissible scales. The result names the
-limit that binds at each end: the one violated just beyond it. A case whose facility admits no
-scale gets the least-violating scale and its worst limit with the excess instead.
+scales are then narrowed: :data:`NARROW_POINTS` scales between each and its inadmissible
+neighbour (both ends in one array evaluation), then the crossing of the worst violation is
+interpolated in log(lambda) (the limits are smooth in the scale): the largest-model end is
+checked to be admissible, both are within about 1e-6 of the limit. The result names the limit
+that binds at each end: the one violated just beyond it. A case whose facility admits no scale
+gets the least-violating scale and its worst limit with the excess instead.
 
 For Froude-scaled models every hard limit is monotonic in the scale (speeds go as
 lambda^-1/2, lengths as lambda^-1, areas as lambda^-2, wave periods as lambda^-1/2 [1]_), so
@@ -58,14 +60,17 @@ from similitude.planning.solver import _roots_along
 from similitude.units import format_scale
 
 #: Scales of the first grid over the search range (log-spaced).
-GRID_SCALES = 96
-#: Points per axis of the fluid state (temperature, pressure, free model speed) at each scale.
-STATE_POINTS = 3
-#: Scales per bracket and round when the window's ends are narrowed.
-NARROW_POINTS = 240
-#: Relative width to which the window's ends are narrowed [-]: two rounds from the grid. The
-#: ends returned are admissible; a campaign checks its chosen scale with model_at_scale.
-END_TOLERANCE = 1e-6
+GRID_SCALES = 64
+#: Points per axis of the fluid state (temperature, pressure, free model speed) at each scale:
+#: the ends of the facility's ranges, where the limits and the mismatch are extreme when they
+#: are monotonic in the state (viscosity in temperature, density in pressure).
+STATE_POINTS = 2
+#: Scales per bracket when the window's ends are narrowed (one round, then interpolation).
+NARROW_POINTS = 64
+#: The interpolated ends are moved this far (relative) towards the admissible side [-]: more
+#: than the interpolation error; an end whose model then breaks a limit falls back to the
+#: last admissible scale of the narrowing (within 1e-3).
+END_TOLERANCE = 1e-7
 #: A limit within this relative violation of zero is active (binding) [-].
 ACTIVE = 1e-7
 #: Largest scale searched when the facility states no smallest model [-]: the solver's range
@@ -83,8 +88,9 @@ class ScalePoint:
 
     Attributes
     ----------
-    solution : Solution
-        Scale, velocity (and rotation) ratio, fluids and pressure of the model.
+    solution : Solution or None
+        Scale, velocity (and rotation) ratio, fluids and pressure of the model (None when
+        only its admissibility was asked for).
     checks : tuple of Check
         The facility checks of this model (:func:`similitude.planning.checks.facility_checks`).
     admissible : bool
@@ -188,8 +194,8 @@ class ScaleWindow:
 # --------------------------------------------------------------------------------------------
 # The window
 # --------------------------------------------------------------------------------------------
-def scale_window(case: Case, problem: Problem | None = None,
-                 n_scales: int = GRID_SCALES) -> ScaleWindow:
+def scale_window(case: Case, problem: Problem | None = None, n_scales: int = GRID_SCALES,
+                 states=None) -> ScaleWindow:
     """The admissible scale window of ``case`` in its facility, with the binding limits.
 
     Parameters
@@ -201,6 +207,9 @@ def scale_window(case: Case, problem: Problem | None = None,
         ``build_problem(case)`` when the caller has it.
     n_scales : int
         Scales of the first grid.
+    states : optional
+        The problem's fluid-state grid from :func:`state_grids` (evaluated together with
+        other problems'); None: evaluated here.
 
     Returns
     -------
@@ -213,7 +222,7 @@ def scale_window(case: Case, problem: Problem | None = None,
         :func:`similitude.planning.candidates.build_problem`).
     """
     prob = problem if problem is not None else build_problem(case)
-    states = _fluid_states(prob)
+    states = _fluid_states(prob) if states is None else states
     lo, hi = _search_range(case)
     grid = np.geomspace(lo, hi, n_scales) if hi > lo * (1 + 1e-12) else np.array([lo])
     sweep = _sweep(prob, states, grid)
@@ -228,15 +237,24 @@ def scale_window(case: Case, problem: Problem | None = None,
     for key, inside, outside in (("low", first, first - 1), ("high", last, last + 1)):
         if 0 <= outside < grid.size:
             brackets[key] = _Bracket((sweep, inside), float(sweep.scales[outside]),
-                                     str(sweep.limit[outside]))
+                                     float(sweep.worst[outside]), str(sweep.limit[outside]),
+                                     str(sweep.kind[outside]))
         else:
-            ends[key] = _Bracket((sweep, inside), float(sweep.scales[inside]),
-                                 _edge_words(prob, sweep, inside, key))
+            ends[key] = _Bracket((sweep, inside), math.nan, math.nan,
+                                 _edge_words(prob, sweep, inside, key), "max")
     ends.update(_narrow(prob, states, brackets))
     low, high = ends["low"], ends["high"]
-    largest = _point(prob, states, *low.good)
-    return ScaleWindow(case, True, low.scale, high.scale, low.words, high.words, (lo, hi),
-                       low.scale, 0.0, "", largest, sweep.scales, sweep.worst, sweep.mismatch)
+    lam_low, largest = low.scale, None
+    if low.end is not None:  # the interpolated end, kept when its model meets every limit
+        largest = _point(prob, states, *low.good, scale=low.end)
+        lam_low = low.end if largest.admissible else lam_low
+    if largest is None or not largest.admissible:
+        largest = _point(prob, states, *low.good)
+    # the smallest-model end is kept as interpolated (within about 1e-7; the campaign checks
+    # the scale it chooses against every limit)
+    lam_high = high.scale if high.end is None else high.end
+    return ScaleWindow(case, True, lam_low, lam_high, low.words, high.words, (lo, hi),
+                       lam_low, 0.0, "", largest, sweep.scales, sweep.worst, sweep.mismatch)
 
 
 def _search_range(case: Case) -> tuple[float, float]:
@@ -297,15 +315,18 @@ class _Sweep:
     scales: np.ndarray
     worst: np.ndarray
     limit: np.ndarray  # object array of str
+    kind: np.ndarray  # object array: "max" or "min", the kind of that limit
     mismatch: np.ndarray
     option: np.ndarray
     T: np.ndarray
     p: np.ndarray
     V: np.ndarray
+    row: np.ndarray  # the state's row in its _States grid (-1: solved, not on the grid)
 
 
 #: The fields of a _Sweep, in order.
-_SWEEP_FIELDS = ("scales", "worst", "limit", "mismatch", "option", "T", "p", "V")
+_SWEEP_FIELDS = ("scales", "worst", "limit", "kind", "mismatch", "option", "T", "p", "V",
+                 "row")
 
 
 def _solve_axis(prob: Problem, opt: FluidOption) -> str | None:
@@ -323,21 +344,49 @@ def _solve_axis(prob: Problem, opt: FluidOption) -> str | None:
 def _fluid_states(prob: Problem) -> tuple[_States, ...]:
     """The state grid of every admissible fluid, with properties where they do not depend on
     the scale (no residual group to solve through the state)."""
-    out = []
-    for opt in prob.options:
-        axes = [opt.axes[k].grid(STATE_POINTS) for k in ("T", "p")]
-        axes.append(np.array([np.nan]) if prob.speed_group is not None
-                    else opt.axes["V"].grid(STATE_POINTS))
-        T, p, V = (m.ravel() for m in np.meshgrid(*axes, indexing="ij"))
-        axis = _solve_axis(prob, opt)
-        state = model_state(opt.info, T, p, opt.spec) if axis is None else None
-        out.append(_States(opt, T, p, V, state, axis))
-    return tuple(out)
+    return state_grids([prob])[0]
+
+
+def state_grids(problems) -> list[tuple]:
+    """The fluid-state grids of several problems (the same test in several facilities), the
+    properties of each fluid evaluated in one array call for all of them; pass each to
+    :func:`scale_window` as ``states``."""
+    grids, wanted = [], {}
+    for prob in problems:
+        row = []
+        for opt in prob.options:
+            axes = [opt.axes[k].grid(STATE_POINTS) for k in ("T", "p")]
+            axes.append(np.array([np.nan]) if prob.speed_group is not None
+                        else opt.axes["V"].grid(STATE_POINTS))
+            T, p, V = (m.ravel() for m in np.meshgrid(*axes, indexing="ij"))
+            axis = _solve_axis(prob, opt)
+            row.append([opt, T, p, V, None, axis])
+            if axis is None:
+                wanted.setdefault((opt.name, opt.spec), []).append(row[-1])
+        grids.append(row)
+    for entries in wanted.values():
+        opt = entries[0][0]
+        T = np.concatenate([e[1] for e in entries])
+        p = np.concatenate([e[2] for e in entries])
+        state = model_state(opt.info, T, p, opt.spec)
+        at = 0
+        for e in entries:
+            e[4] = map_state(state, _part(slice(at, at + e[1].size), T.size), e[1])
+            at += e[1].size
+    return [tuple(_States(*e) for e in row) for row in grids]
+
+
+def _part(part: slice, n: int):
+    """A function taking ``part`` of an array of n values (a scalar broadcast first)."""
+    def take(a):
+        return None if a is None else np.broadcast_to(np.asarray(a, dtype=float), (n,))[part]
+    return take
 
 
 def _candidates(prob: Problem, st: _States, scales: np.ndarray):
-    """(candidates, row of each candidate's scale, model speeds) of every state at every
-    scale; the residual exact group solved through its axis ((None, None, None): no root)."""
+    """(candidates, row of each candidate's scale, model speeds, row of its state in the
+    grid) of every state at every scale; the residual exact group solved through its axis
+    (all None: no root)."""
     n, ns = scales.size, st.T.size
     if st.solve_axis is None:
         def rep(a):
@@ -349,17 +398,18 @@ def _candidates(prob: Problem, st: _States, scales: np.ndarray):
         V = None if prob.speed_group is not None else rep(st.V)
         c = evaluate(prob, st.option, rep(st.T), rep(st.p), np.tile(scales, ns), V,
                      state=state)
-        return c, np.tile(np.arange(n), ns), rep(st.V)
+        return c, np.tile(np.arange(n), ns), rep(st.V), np.repeat(np.arange(ns), n)
     base = {"T": np.repeat(st.T, n), "p": np.repeat(st.p, n), "V": np.repeat(st.V, n),
             "lam": np.tile(scales, ns)}
     base.pop(st.solve_axis)
     pts, _ = _roots_along(prob, st.option, st.solve_axis, 32, base)
     if pts is None:
-        return None, None, None
+        return None, None, None, None
     V = None if prob.speed_group is not None else pts["V"]
     c = evaluate(prob, st.option, pts["T"], pts["p"], pts["lam"], V)
     rows = np.clip(np.searchsorted(scales, pts["lam"]), 0, n - 1)
-    return c, rows, np.broadcast_to(np.asarray(pts["V"], dtype=float), rows.shape)
+    return (c, rows, np.broadcast_to(np.asarray(pts["V"], dtype=float), rows.shape),
+            np.full(rows.shape, -1))
 
 
 def _worst(prob: Problem, c: Candidates):
@@ -378,11 +428,13 @@ def _sweep(prob: Problem, states: tuple[_States, ...], scales: np.ndarray) -> _S
     scale, the least violation with its limit and the best state (see :class:`_Sweep`)."""
     n = scales.size
     out = {"scales": scales, "worst": np.full(n, np.inf), "limit": np.full(n, "", object),
-           "mismatch": np.full(n, np.inf), "option": np.full(n, -1),
-           "T": np.full(n, np.nan), "p": np.full(n, np.nan), "V": np.full(n, np.nan)}
+           "kind": np.full(n, "max", object), "mismatch": np.full(n, np.inf),
+           "option": np.full(n, -1),
+           "T": np.full(n, np.nan), "p": np.full(n, np.nan), "V": np.full(n, np.nan),
+           "row": np.full(n, -1)}
     rank = (np.full(n, 2), np.full(n, np.inf))  # (0 admissible / 1 not, mismatch / violation)
     for i, st in enumerate(states):
-        c, rows, v = _candidates(prob, st, scales)
+        c, rows, v, state_rows = _candidates(prob, st, scales)
         if c is None:
             continue
         w, vmat, lims = _worst(prob, c)
@@ -393,7 +445,9 @@ def _sweep(prob: Problem, states: tuple[_States, ...], scales: np.ndarray) -> _S
         out["worst"][s] = w[j]
         if vmat.size and j.size:
             words = np.array([_limit_words(lim) for lim in lims], dtype=object)
-            out["limit"][s] = words[np.argmax(vmat[:, j], axis=0)]
+            kinds = np.array([lim.kind for lim in lims], dtype=object)
+            most = np.argmax(vmat[:, j], axis=0)
+            out["limit"][s], out["kind"][s] = words[most], kinds[most]
         m = mismatch(prob, c)
         adm = w <= 0
         r1, r2 = np.where(adm, 0, 1), np.where(adm, m, w)
@@ -404,6 +458,7 @@ def _sweep(prob: Problem, states: tuple[_States, ...], scales: np.ndarray) -> _S
         rank[0][s], rank[1][s] = r1[j], r2[j]
         out["option"][s] = i
         out["T"][s], out["p"][s], out["V"][s] = c.temperature[j], c.pressure[j], v[j]
+        out["row"][s] = state_rows[j]
         out["mismatch"][s] = np.where(adm[j], m[j], np.inf)
     out["mismatch"][~np.isfinite(out["mismatch"])] = np.nan
     return _Sweep(**out)
@@ -426,30 +481,55 @@ def _merge(a: _Sweep, b: _Sweep) -> _Sweep:
                     for f in _SWEEP_FIELDS))
 
 
-def _evaluate_at(prob: Problem, states, sweep: _Sweep, i: int) -> Candidates:
-    """The state kept at scale ``i`` of a sweep as a single candidate."""
-    opt = states[int(sweep.option[i])].option
+def _evaluate_at(prob: Problem, states, sweep: _Sweep, i: int,
+                 scale: float | None = None) -> Candidates:
+    """The state kept at scale ``i`` of a sweep (at ``scale`` when given) as a single
+    candidate; its fluid properties from the state grid when it lies on it."""
+    st = states[int(sweep.option[i])]
+    lam = float(sweep.scales[i] if scale is None else scale)
     one = lambda a: np.array([float(a[i])])  # noqa: E731
-    return evaluate(prob, opt, one(sweep.T), one(sweep.p), one(sweep.scales),
-                    None if prob.speed_group is not None else one(sweep.V))
+    return evaluate(prob, st.option, one(sweep.T), one(sweep.p), np.array([lam]),
+                    None if prob.speed_group is not None else one(sweep.V),
+                    state=_state_row(st, int(sweep.row[i]), np.array))
 
 
-def _point(prob: Problem, states, sweep: _Sweep, i: int) -> ScalePoint:
-    """The state kept at scale ``i`` of a sweep as a ScalePoint."""
-    opt = states[int(sweep.option[i])].option
-    c = _evaluate_at(prob, states, sweep, i)
+def _state_row(st: _States, row: int, kind=float):
+    """One row of a state grid (``kind``: float for a scalar state, np.array for an array of
+    one); None when the state is not on the grid."""
+    if row < 0 or st.state is None:
+        return None
+    def pick(a):
+        if a is None:
+            return None
+        v = float(np.broadcast_to(np.asarray(a, dtype=float), st.T.shape)[row])
+        return kind([v]) if kind is np.array else v
+    return map_state(st.state, pick, pick(st.state.temperature_si))
+
+
+def _point(prob: Problem, states, sweep: _Sweep, i: int, scale: float | None = None,
+           checks: bool = True) -> ScalePoint:
+    """The state kept at scale ``i`` of a sweep as a ScalePoint, at ``scale`` instead of that
+    scale when given; ``checks=False`` leaves out the facility checks (admissibility only)."""
+    st = states[int(sweep.option[i])]
+    c = _evaluate_at(prob, states, sweep, i, scale)
+    w, _, _ = _worst(prob, c)
+    admissible = bool(w[0] <= 0)
+    if not checks:
+        return ScalePoint(None, (), admissible, math.nan, c, prob)
     lam, vr = float(c.scale[0]), float(c.velocity_ratio[0])
     T, p = float(c.temperature[0]), float(c.pressure[0])
     fac = prob.case.facility
+    fluid = _state_row(st, int(sweep.row[i]))
+    if fluid is None:
+        fluid = model_state(st.option.info, T, p, st.option.spec, strict=True)
     sol = Solution(
-        scale=lam, velocity_ratio=vr, prototype_fluid=prob.proto.state,
-        model_fluid=model_state(opt.info, T, p, opt.spec, strict=True),
+        scale=lam, velocity_ratio=vr, prototype_fluid=prob.proto.state, model_fluid=fluid,
         rotation_ratio=vr * lam if prob.proto.rotation is not None else None,
         model_pressure=(float(c.reference_pressure[0]) if not fac.free_surface
                         or fac.pressure_range is not None else None),
         exact=tuple(prob.exact), binding="the scale window of the facility",
-        objective=prob.case.request.objective, fluid_name=opt.name, static_pressure=p)
-    return ScalePoint(sol, facility_checks(prob, c), bool(sweep.worst[i] <= 0),
+        objective=prob.case.request.objective, fluid_name=st.option.name, static_pressure=p)
+    return ScalePoint(sol, facility_checks(prob, c), admissible,
                       float(mismatch(prob, c)[0]), c, prob)
 
 
@@ -459,16 +539,38 @@ def _point(prob: Problem, states, sweep: _Sweep, i: int) -> ScalePoint:
 @dataclass
 class _Bracket:
     """One end of the window while it is narrowed: the admissible side (sweep, index), the
-    inadmissible scale beyond it and the limit broken there."""
+    inadmissible scale beyond it with its worst violation and the limit broken there, and the
+    interpolated end (None until interpolated, or when it cannot be)."""
 
     good: tuple
     bad: float
+    bad_worst: float
     words: str
+    kind: str
+    end: float | None = None
 
     @property
     def scale(self) -> float:
+        """The admissible scale [-]."""
         sweep, i = self.good
         return float(sweep.scales[i])
+
+    def interpolate(self) -> None:
+        """The crossing of the worst violation between the admissible and the inadmissible
+        scale, END_TOLERANCE inside."""
+        sweep, i = self.good
+        wg, wb = float(sweep.worst[i]), self.bad_worst
+        if not (math.isfinite(wb) and wb > 0 >= wg and wg > -1 and wb < 1):
+            return
+        # ln(value/limit) is linear in ln(lambda) for a power law: 1 + w for a maximum,
+        # 1 - w for a minimum (limits.Limit.violation)
+        yg, yb = ((math.log1p(wg), math.log1p(wb)) if self.kind == "max"
+                  else (-math.log1p(-wg), -math.log1p(-wb)))
+        xg, xb = math.log(self.scale), math.log(self.bad)
+        x = xg + (xb - xg) * (-yg) / (yb - yg)
+        x -= math.copysign(END_TOLERANCE, xb - xg)
+        lo, hi = sorted((xg, xb))
+        self.end = math.exp(min(max(x, lo), hi))
 
 
 def _limit_words(lim) -> str:
@@ -496,38 +598,39 @@ def _edge_words(prob: Problem, sweep: _Sweep, i: int, side: str) -> str:
 
 
 def _narrow(prob: Problem, states, brackets: dict) -> dict:
-    """Narrow the ends of the window, each between its admissible and inadmissible scale,
-    NARROW_POINTS scales a bracket, both ends in one array evaluation a round, to
-    END_TOLERANCE relative. Returns {end: _Bracket} with the admissible end scale."""
-    out = {}
-    while brackets:
-        keys = list(brackets)
-        grids = []
-        for b in brackets.values():
-            a, z = sorted((b.scale, b.bad))
-            grids.append(np.geomspace(a, z, NARROW_POINTS + 2)[1:-1])
-        sub = _sweep(prob, states, np.concatenate(grids))
-        at = 0
-        for key, xs in zip(keys, grids, strict=True):
-            ok = sub.worst[at:at + xs.size] <= 0
-            b = brackets[key]
-            if key == "low":  # inadmissible below the first admissible scale
-                k = int(np.argmax(ok)) if ok.any() else xs.size
-                if k > 0:
-                    b.bad, b.words = float(xs[k - 1]), str(sub.limit[at + k - 1])
-                if k < xs.size:
-                    b.good = (sub, at + k)
-            else:  # admissible up to the first inadmissible scale
-                k = int(np.argmin(ok)) if not ok.all() else xs.size
-                if k > 0:
-                    b.good = (sub, at + k - 1)
-                if k < xs.size:
-                    b.bad, b.words = float(xs[k]), str(sub.limit[at + k])
-            at += xs.size
-            if abs(b.bad / b.scale - 1) <= END_TOLERANCE:
-                b.words = b.words or "no fluid state of the facility meets the exact groups"
-                out[key] = brackets.pop(key)
-    return out
+    """Narrow the ends of the window: NARROW_POINTS scales in each bracket between its
+    admissible and inadmissible scale, both ends in one array evaluation; then the crossing of
+    the worst violation, interpolated linearly in log(lambda) between the last admissible and
+    the first inadmissible scale and moved END_TOLERANCE towards the admissible side
+    (``_Bracket.end``; the limits are smooth in the scale, so the interpolation error is of
+    the order of the bracket's width squared). Returns {end: _Bracket}."""
+    if not brackets:
+        return {}
+    grids = []
+    for b in brackets.values():
+        a, z = sorted((b.scale, b.bad))
+        grids.append(np.geomspace(a, z, NARROW_POINTS + 2)[1:-1])
+    sub = _sweep(prob, states, np.concatenate(grids))
+    at = 0
+    for key, xs in zip(list(brackets), grids, strict=True):
+        ok = sub.worst[at:at + xs.size] <= 0
+        b = brackets[key]
+        if key == "low":  # inadmissible below the first admissible scale
+            k = int(np.argmax(ok)) if ok.any() else xs.size
+            bad, good = k - 1, k
+        else:  # admissible up to the first inadmissible scale
+            k = int(np.argmin(ok)) if not ok.all() else xs.size
+            bad, good = k, k - 1
+        if 0 <= good < xs.size:
+            b.good = (sub, at + good)
+        if 0 <= bad < xs.size:
+            b.bad, b.bad_worst, b.words, b.kind = (
+                float(xs[bad]), float(sub.worst[at + bad]), str(sub.limit[at + bad]),
+                str(sub.kind[at + bad]))
+        at += xs.size
+        b.words = b.words or "no fluid state of the facility meets the exact groups"
+        b.interpolate()
+    return brackets
 
 
 def _zoom(prob: Problem, states, sweep: _Sweep, rounds: int = 3) -> _Sweep:
@@ -568,4 +671,5 @@ def _infeasible(prob: Problem, states, sweep: _Sweep, search) -> ScaleWindow:
                        sweep.mismatch)
 
 
-__all__ = ["END_TOLERANCE", "ScalePoint", "ScaleWindow", "model_at_scale", "scale_window"]
+__all__ = ["END_TOLERANCE", "ScalePoint", "ScaleWindow", "model_at_scale", "scale_window",
+           "state_grids"]

@@ -12,8 +12,8 @@ become working days of ``Campaign.working_day`` hours; with a start date, days b
 on weekdays (numpy's business-day calendar, Monday to Friday; public holidays are not known).
 
 Models to build: one row per model with its scale, length and, for hull models, the mass to
-ballast to for each loading condition, m = rho_m V_p / lambda^3 (the displacement volume
-scaled geometrically, in the water of the first test that uses the model; Archimedes).
+ballast to for each loading condition, m = rho_m V_p / lambda^3 in the water of the first test
+that uses the model (:func:`similitude.planning.model_build.model_build`).
 """
 
 from __future__ import annotations
@@ -146,25 +146,9 @@ def model_table(campaign: Campaign, order: Sequence[CampaignTest],
                 row["represents"] = f"{proto.name} ({proto.length:g} m)"
                 row["model length [m]"] = plan.model_length
             if k == 0 and role == "hull":
-                for loading, kg in loading_masses(plan).items():
+                for loading, kg in plan.model_build.masses.items():
                     row.setdefault(f"model mass, {loading} [kg]", kg)
     return pd.DataFrame(list(rows.values()))
 
 
-def loading_masses(plan: Plan) -> dict[str, float]:
-    """Model mass [kg] of each loading condition of a plan: rho_m V_p / lambda^3, with V_p the
-    loading's displacement volume (the prototype's for the design condition)."""
-    rho = float(np.asarray(plan.model_fluid.density_si))
-    lam3 = plan.scale ** 3
-    out = {}
-    for ld in plan.case.matrix.loading:
-        if ld.displacement is not None:
-            out[ld.name] = rho * ld.displacement / lam3
-    if not plan.case.matrix.loading:
-        disp = plan.case.prototype.dimension("displacement")
-        if disp is not None:
-            out["design"] = rho * disp / lam3
-    return out
-
-
-__all__ = ["Booking", "book", "booking_order", "loading_masses", "model_table"]
+__all__ = ["Booking", "book", "booking_order", "model_table"]

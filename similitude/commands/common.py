@@ -7,6 +7,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import os
 from collections.abc import Iterable
 from pathlib import Path
 from typing import Any
@@ -76,8 +77,9 @@ def check_targets(paths: Iterable[Path], force: bool) -> None:
     for p in paths:
         if p.is_dir():
             problems.append(f"output: {str(p)!r} is a folder; expected a file path")
-        elif p.exists() and not force:
-            problems.append(f"output: {str(p)!r} exists; not overwritten (use --force)")
+        elif os.path.lexists(p) and not force:  # a symbolic link counts, even a dangling one
+            what = "is a symbolic link" if p.is_symlink() else "exists"
+            problems.append(f"output: {str(p)!r} {what}; not overwritten (use --force)")
         elif not p.parent.exists() and p.suffix == ".xlsx":
             problems.append(f"output: folder {str(p.parent)!r} does not exist; expected an "
                             "existing folder")

@@ -33,7 +33,7 @@ from similitude.planning.matrix import facility_time_hours, runs_text
 from similitude.planning.planner import Plan
 from similitude.planning.planner import plan as make_plan
 from similitude.readers.case_file import load_case
-from similitude.report.atomic import write_text_atomic
+from similitude.report.atomic import OutputSet, signals_cleanup
 from similitude.report.plots import plot_plan
 from similitude.units import format_scale
 
@@ -79,17 +79,17 @@ def run(args) -> int:
               "(pip install 'similitude[plot]'); nothing was written", file=sys.stderr)
         return 1
     plan = make_plan(load_case(args.case))
-    # Build every text output before the first write, so a failure leaves nothing behind.
-    csv_texts = _csv_texts(plan) if args.csv else {}
     json_out = json_text(plan.to_dict()) if args.json else None
-
-    written: list[Path] = []
-    if args.output:
-        written.append(_write_workbook(plan, args.output, args.force, args.paper))
-    if csv_texts:
-        written.extend(_write_csv(csv_texts, Path(args.csv).expanduser(), args.force))
-    if args.plots:
-        written.extend(_write_plots(plan, Path(args.plots).expanduser(), args.force))
+    # Every file is written as one set: all are published, or none (a failing CSV folder
+    # takes the workbook back too).
+    with signals_cleanup(), OutputSet(args.force) as out:
+        if args.output:
+            _write_workbook(plan, args.output, out, args.paper)
+        if args.csv:
+            _write_csv(plan, out.folder(args.csv, "--csv"), out)
+        if args.plots:
+            _write_plots(plan, out.folder(args.plots, "--plots"), out)
+    written = out.written
 
     if json_out is not None:
         print(json_out)
@@ -119,37 +119,35 @@ def _have_matplotlib() -> bool:
     return True
 
 
-def _write_workbook(plan: Plan, path: str, force: bool, paper: str = "A4") -> Path:
+def _write_workbook(plan: Plan, path: str, out: OutputSet, paper: str = "A4") -> None:
     # The workbook writer loads openpyxl (a heavy library): imported only when -o asks for a
     # workbook, so a run for the summary or --json stays quick.
     from similitude.report.plan_workbook import write_plan
 
-    return write_plan(plan, path, overwrite=force, paper=paper)
+    write_plan(plan, path, paper=paper, outputs=out)
 
 
 def _csv_texts(plan: Plan) -> dict[str, str]:
-    """File stem -> CSV text of each table of ``--csv``."""
+    """File stem -> CSV text of each table of ``--csv``, text fields made safe for a
+    spreadsheet (:func:`similitude.report.sheets.csv_text`)."""
+    # report.sheets loads openpyxl (a heavy library): only when --csv asks for tables
+    from similitude.report.sheets import csv_text
+
     tables = {
         "groups": plan.groups, "checks": checks_table(plan.checks),
         "matrix": plan.matrix, "scale_factors": plan.scale_factors, "speeds": plan.speeds,
     }
-    return {stem: tables[stem].to_csv(index=False) for stem in CSV_TABLES}
+    return {stem: csv_text(tables[stem]) for stem in CSV_TABLES}
 
 
-def _write_csv(texts: dict[str, str], folder: Path, force: bool) -> list[Path]:
-    folder.mkdir(parents=True, exist_ok=True)
-    return [write_text_atomic(folder / f"{stem}.csv", text, overwrite=force)
-            for stem, text in texts.items()]
+def _write_csv(plan: Plan, folder: Path, out: OutputSet) -> None:
+    for stem, text in _csv_texts(plan).items():
+        out.add(folder / f"{stem}.csv", lambda p, text=text: p.write_text(text, encoding="utf-8"))
 
 
-def _write_plots(plan: Plan, folder: Path, force: bool) -> list[Path]:
-    folder.mkdir(parents=True, exist_ok=True)
-    out = []
+def _write_plots(plan: Plan, folder: Path, out: OutputSet) -> None:
     for kind in PLOT_KINDS:
-        target = folder / f"{kind}.png"
-        plot_plan(plan, kind=kind, path=target, overwrite=force)  # written atomically there
-        out.append(target)
-    return out
+        plot_plan(plan, kind=kind, path=folder / f"{kind}.png", outputs=out)
 
 
 # -- the summary --------------------------------------------------------------------------

@@ -18,14 +18,13 @@ from __future__ import annotations
 
 import pathlib
 
-from openpyxl import Workbook
 from openpyxl.styles import Font
 from openpyxl.utils import get_column_letter
 from openpyxl.workbook.properties import CalcProperties
 from openpyxl.worksheet.hyperlink import Hyperlink
 
 from similitude.planning.campaign_plan import OBJECTIVE_WORDS, CampaignPlan
-from similitude.report.atomic import check_target, write_atomic
+from similitude.report.atomic import OutputSet, check_target, signals_cleanup
 from similitude.report.page import PageSetup
 from similitude.report.plan_workbook import STATUS_FILLS, add_plan_sheets
 from similitude.report.sheets import (
@@ -33,12 +32,13 @@ from similitude.report.sheets import (
     TITLE_FONT,
     WRAP,
     label_row,
+    new_workbook,
     print_setup,
+    save_workbook,
     set_widths,
     wrap_rows,
     wrapped_lines,
     write_frame,
-    write_long_tables,
 )
 
 SUMMARY_SHEET = "Campaign"
@@ -64,8 +64,7 @@ LINK_FONT = Font(color="0563C1", underline="single")
 def build_workbook(result: CampaignPlan, paper: str = "A4"):
     """The openpyxl Workbook of a campaign and its long tables (rows not yet written);
     ``paper`` is the paper size its sheets are set up to print on ("A4" or "letter")."""
-    wb = Workbook()
-    wb.remove(wb.active)
+    wb = new_workbook()
     page = PageSetup(title=result.campaign.name, paper=paper)
     _summary_sheet(wb, result, page)
     _ranking_sheet(wb, result, page)
@@ -78,7 +77,7 @@ def build_workbook(result: CampaignPlan, paper: str = "A4"):
 
 
 def write_campaign(result: CampaignPlan, path, overwrite: bool = False,
-                   paper: str = "A4") -> pathlib.Path:
+                   paper: str = "A4", outputs: OutputSet | None = None) -> pathlib.Path:
     """Write the campaign workbook of ``result`` to ``path`` (.xlsx), atomically.
 
     Parameters
@@ -90,6 +89,9 @@ def write_campaign(result: CampaignPlan, path, overwrite: bool = False,
         Replace an existing file. Without it an existing file is never touched.
     paper : str
         Paper size the sheets are set up to print on ("A4" or "letter").
+    outputs : similitude.report.atomic.OutputSet, optional
+        Write the workbook as one file of this set (published with the others, or not at
+        all); ``overwrite`` is then the set's.
 
     Returns
     -------
@@ -101,15 +103,15 @@ def write_campaign(result: CampaignPlan, path, overwrite: bool = False,
     similitude.report.atomic.OutputExistsError
         When the file exists and ``overwrite`` is False.
     """
-    target = pathlib.Path(path).expanduser()
-    check_target(target, overwrite)  # fail before the work
+    if outputs is not None:
+        overwrite = outputs.overwrite
+    target = check_target(path, overwrite)  # fail before the work
     wb, tables = build_workbook(result, paper)
-
-    def writer(tmp: pathlib.Path) -> None:
-        wb.save(tmp)
-        write_long_tables(tmp, wb, tables)
-
-    return write_atomic(target, writer, overwrite=overwrite)
+    if outputs is not None:
+        return outputs.add(target, lambda tmp: save_workbook(wb, tmp, tables))
+    with signals_cleanup(), OutputSet(overwrite) as out:
+        out.add(target, lambda tmp: save_workbook(wb, tmp, tables))
+    return target
 
 
 # -- Campaign (summary) ---------------------------------------------------------------------

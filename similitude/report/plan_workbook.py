@@ -53,7 +53,7 @@ from similitude.planning.matrix import (
 )
 from similitude.planning.planner import Plan
 from similitude.report import formulas
-from similitude.report.atomic import check_target, write_atomic
+from similitude.report.atomic import OutputSet, check_target, signals_cleanup
 from similitude.report.page import PageSetup
 from similitude.report.sheets import (
     BOLD,
@@ -65,11 +65,15 @@ from similitude.report.sheets import (
     chart_below,
     fit_row_height,
     fit_widths,
+    formula,
     header_row,
     label_row,
     long_table,
+    new_sheet,
+    new_workbook,
     number_format,
     print_setup,
+    save_workbook,
     scatter_chart,
     set_widths,
     table_range,
@@ -77,7 +81,6 @@ from similitude.report.sheets import (
     widen,
     wrap_rows,
     write_frame,
-    write_long_tables,
 )
 from similitude.units import format_scale
 
@@ -156,8 +159,7 @@ def build_workbook(plan: Plan, paper: str = "A4") -> tuple[Workbook, list[LongTa
     tuple
         (workbook, list of pending long tables); :func:`write_plan` saves and completes it.
     """
-    wb = Workbook()
-    wb.remove(wb.active)
+    wb = new_workbook()
     tables = add_plan_sheets(wb, plan, paper=paper)
     # no cached values are stored: ask the application to calculate everything on load
     wb.calculation = CalcProperties(fullCalcOnLoad=True)
@@ -208,10 +210,11 @@ class _PrefixedWorkbook:
         self.wb, self.prefix = wb, prefix
 
     def create_sheet(self, title: str):
-        return self.wb.create_sheet(self.prefix + title)
+        return new_sheet(self.wb, self.prefix + title)
 
 
-def write_plan(plan: Plan, path, overwrite: bool = False, paper: str = "A4") -> pathlib.Path:
+def write_plan(plan: Plan, path, overwrite: bool = False, paper: str = "A4",
+               outputs: OutputSet | None = None) -> pathlib.Path:
     """Write the test-plan workbook of ``plan`` to ``path`` (.xlsx), atomically.
 
     Parameters
@@ -225,6 +228,9 @@ def write_plan(plan: Plan, path, overwrite: bool = False, paper: str = "A4") -> 
         Replace an existing file. Without it an existing file is never touched.
     paper : str
         Paper size of the page setup: ``"A4"`` (default) or ``"letter"``.
+    outputs : similitude.report.atomic.OutputSet, optional
+        Write the workbook as one file of this set (published with the others, or not at
+        all); ``overwrite`` is then the set's.
 
     Returns
     -------
@@ -236,15 +242,15 @@ def write_plan(plan: Plan, path, overwrite: bool = False, paper: str = "A4") -> 
     similitude.report.atomic.OutputExistsError
         (an InputError and FileExistsError) when the file exists and ``overwrite`` is False.
     """
-    target = pathlib.Path(path).expanduser()
-    check_target(target, overwrite)  # fail before the work
+    if outputs is not None:
+        overwrite = outputs.overwrite
+    target = check_target(path, overwrite)  # fail before the work
     wb, tables = build_workbook(plan, paper)
-
-    def writer(tmp: pathlib.Path) -> None:
-        wb.save(tmp)
-        write_long_tables(tmp, wb, tables)
-
-    return write_atomic(target, writer, overwrite=overwrite)
+    if outputs is not None:
+        return outputs.add(target, lambda tmp: save_workbook(wb, tmp, tables))
+    with signals_cleanup(), OutputSet(overwrite) as out:
+        out.add(target, lambda tmp: save_workbook(wb, tmp, tables))
+    return target
 
 
 # -- Overview -------------------------------------------------------------------------------
@@ -449,7 +455,8 @@ def _worked_example(ws, factor_col: int, col: int, first: int, last: int) -> Non
     factor, model = get_column_letter(factor_col), get_column_letter(col)
     for r in range(first, last + 1):
         ws.cell(row=r, column=col, value=1.0).fill = INPUT_FILL
-        ws.cell(row=r, column=col + 1, value=f"={factor}{r}*{model}{r}").number_format = (
+        ws.cell(row=r, column=col + 1,
+                value=formula(f"{factor}{r}*{model}{r}")).number_format = (
             "0.0000E+00")
     ws.cell(row=last + 2, column=1, value="Enter a model measurement in the yellow cells "
             "(in the model unit of that row); the next column gives its full-scale value.")
@@ -573,13 +580,14 @@ def _test_day_properties(wb, ws, state: FluidState):
         (temperature range [K] the formulas are valid in, or None; the property table or None)
     """
     fluid = state.fluid
-    ws[KELVIN_CELL] = "=" + formulas.kelvin(TEMPERATURE_CELL)
+    ws[KELVIN_CELL] = formula(formulas.kelvin(TEMPERATURE_CELL))
     if formulas.supports(fluid):
-        ws[DENSITY_CELL] = formulas.density(fluid, KELVIN_CELL, PRESSURE_CELL)
-        ws[VISCOSITY_CELL] = formulas.dynamic_viscosity(fluid, KELVIN_CELL, DENSITY_CELL)
-        ws[KINEMATIC_CELL] = formulas.kinematic_viscosity(DENSITY_CELL, VISCOSITY_CELL)
-        ws[VAPOUR_PRESSURE_CELL] = formulas.vapour_pressure(fluid, KELVIN_CELL)
-        ws[SURFACE_TENSION_CELL] = formulas.surface_tension(fluid, KELVIN_CELL)
+        ws[DENSITY_CELL] = formula(formulas.density(fluid, KELVIN_CELL, PRESSURE_CELL))
+        ws[VISCOSITY_CELL] = formula(formulas.dynamic_viscosity(fluid, KELVIN_CELL, DENSITY_CELL))
+        ws[KINEMATIC_CELL] = formula(formulas.kinematic_viscosity(DENSITY_CELL, VISCOSITY_CELL))
+        for ref, text in ((VAPOUR_PRESSURE_CELL, formulas.vapour_pressure(fluid, KELVIN_CELL)),
+                          (SURFACE_TENSION_CELL, formulas.surface_tension(fluid, KELVIN_CELL))):
+            ws[ref] = None if text is None else formula(text)
         return _temperature_range(fluid), None
     table = _property_table(wb, state)
     if table is None:
@@ -596,8 +604,8 @@ def _test_day_properties(wb, ws, state: FluidState):
     for ref, key in ((DENSITY_CELL, "density"), (VISCOSITY_CELL, "viscosity"),
                      (VAPOUR_PRESSURE_CELL, "vapour"), (SURFACE_TENSION_CELL, "surface")):
         if key in table.ranges:
-            ws[ref] = formulas.interpolate(t_abs, x, table.ranges[key])
-    ws[KINEMATIC_CELL] = formulas.kinematic_viscosity(DENSITY_CELL, VISCOSITY_CELL)
+            ws[ref] = formula(formulas.interpolate(t_abs, x, table.ranges[key]))
+    ws[KINEMATIC_CELL] = formula(formulas.kinematic_viscosity(DENSITY_CELL, VISCOSITY_CELL))
     ws.cell(row=6, column=3, value="fixed: the property table is at this pressure")
     return table.temperatures, table
 
@@ -605,8 +613,8 @@ def _test_day_properties(wb, ws, state: FluidState):
 def _test_day_range_check(ws, valid: tuple[float, float]) -> None:
     """A formula cell saying whether the measured temperature is inside ``valid`` [K]."""
     lo, hi = valid[0] - 273.15, valid[1] - 273.15
-    ws[RANGE_CHECK_CELL] = (f'=IF(AND({TEMPERATURE_CELL}>={lo!r},{TEMPERATURE_CELL}<='
-                            f'{hi!r}),"inside","OUTSIDE: results not valid")')
+    ws[RANGE_CHECK_CELL] = formula(f'IF(AND({TEMPERATURE_CELL}>={lo!r},{TEMPERATURE_CELL}<='
+                                   f'{hi!r}),"inside","OUTSIDE: results not valid")')
     ws.cell(row=ws[RANGE_CHECK_CELL].row, column=3, value=f"valid {lo:g} to {hi:g} degC")
 
 

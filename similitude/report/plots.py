@@ -100,7 +100,7 @@ def scale_window(plan: Plan) -> pd.DataFrame:
         if area:
             add("solid blockage area ratio <= 5 %",
                 math.sqrt(area / (0.05 * fac.cross_section)), math.inf,
-                "common practice for closed tunnels (from memory)")
+                "common practice for closed tunnels")  # 5 %: from memory
         add("model length <= test-section width", lp / fac.width, math.inf, "geometry")
     return pd.DataFrame(rows, columns=["limit", "lowest scale [-]", "highest scale [-]",
                                        "source"])

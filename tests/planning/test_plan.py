@@ -172,8 +172,8 @@ def test_plan_refuses_a_non_case():
 def test_free_tank_temperature_note_says_why_and_where_the_test_day_value_goes(the_plan):
     # Facility range 10-25 degC (Facility default); the warmest water has the lowest nu and so
     # the least Reynolds mismatch at a Froude speed.
-    note = next(n for n in the_plan.notes if n.startswith("Model water temperature"))
-    assert "25.00 degC" in note and "10.0-25.0 degC" in note
+    note = next(n for n in the_plan.notes if n.startswith("Model fluid temperature"))
+    assert "25.00 degC is the warm end" in note and "10.0-25.0 degC" in note
     assert "Reynolds mismatch" in note and "'Test day' sheet" in note
 
 

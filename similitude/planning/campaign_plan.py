@@ -53,7 +53,7 @@ CANDIDATE_COLUMNS = (
     "test", "kind", "rank", "facility", "file", "feasible", "chosen", "largest model",
     "lambda, largest model [-]", "model length [m]", "binding at the largest model",
     "smallest model", "lambda, smallest model [-]", "binding at the smallest model",
-    "model Reynolds number [-]", "Reynolds ratio prototype/model [-]", "key margins",
+    "model Reynolds number [-]", "Re prototype / Re model [-]", "key margins",
     "facility hours [h]", "why not", "excess of the worst limit [-]",
 )
 
@@ -186,7 +186,7 @@ class CampaignPlan:
             f"<h4>Candidates for {html.escape(name)}</h4>"
             + table(df, ("rank", "facility", "feasible", "chosen", "largest model",
                          "model length [m]", "binding at the largest model",
-                         "Reynolds ratio prototype/model [-]", "key margins",
+                         "Re prototype / Re model [-]", "key margins",
                          "facility hours [h]", "why not"))
             for name, df in self.rankings.items())
         reasons = "".join(f"<li>{html.escape(r)}</li>" for r in self.reasons)
@@ -291,7 +291,7 @@ def _candidate_row(c: CandidateFacility, chosen: CandidateFacility) -> dict:
         "lambda, smallest model [-]": w.high if feasible else math.nan,
         "binding at the smallest model": w.high_limit if feasible else "",
         "model Reynolds number [-]": c.reynolds_model,
-        "Reynolds ratio prototype/model [-]": c.reynolds_ratio,
+        "Re prototype / Re model [-]": c.reynolds_ratio,
         "key margins": "; ".join(f"{name} {m:.1%}" for name, m in c.margins),
         "facility hours [h]": c.hours,
         "why not": c.why_not,

@@ -18,7 +18,7 @@ from __future__ import annotations
 
 import pathlib
 
-from openpyxl.styles import Font
+from openpyxl.styles import Alignment, Font
 from openpyxl.utils import get_column_letter
 from openpyxl.workbook.properties import CalcProperties
 from openpyxl.worksheet.hyperlink import Hyperlink
@@ -47,17 +47,22 @@ COMBINATIONS_SHEET = "Combinations"
 #: Columns of the ranking blocks, in order.
 RANKING_COLUMNS = ("rank", "facility", "chosen", "largest model", "model length [m]",
                    "binding at the largest model", "smallest model",
-                   "binding at the smallest model", "Reynolds ratio prototype/model [-]",
+                   "binding at the smallest model", "Re prototype / Re model [-]",
                    "facility hours [h]", "key margins", "why not")
 #: Widths of the ranking sheet's columns (characters).
-RANKING_WIDTHS = (6, 26, 8, 10, 9, 34, 10, 30, 12, 9, 36, 44)
+RANKING_WIDTHS = (6, 22, 7, 9, 8, 28, 9, 24, 9, 8, 30, 30)
 #: Columns of the summary's table of tests.
-TEST_COLUMNS = ("label", "test", "kind", "facility", "models", "scale", "runs [-]",
+TEST_COLUMNS = ("label", "test", "facility", "models", "scale", "runs [-]",
                 "booked hours [h]", "first day", "last day", "first date", "last date")
-#: Widths of the summary sheet's columns (characters); long texts span them all.
-SUMMARY_WIDTHS = (30, 18, 16, 34, 24, 9, 9, 12, 10, 10, 12, 12)
+#: Widths of the summary sheet's columns (characters), narrow enough to print one page wide
+#: at a readable size; long texts span them all.
+SUMMARY_WIDTHS = (24, 16, 28, 20, 8, 8, 9, 10, 10, 11, 11)
+#: Columns of the summary's models table, in order (the masses per loading follow).
+MODEL_COLUMNS = ("model", "represents", "tests", "role", "scale", "lambda [-]",
+                 "model length [m]")
 #: Widths of the combinations sheet's columns (characters).
 COMBINATION_WIDTHS = (22, 6, 8, 46, 12, 42, 12, 40, 8, 10, 12, 12)
+CENTER_TOP = Alignment(horizontal="center", vertical="top")
 LINK_FONT = Font(color="0563C1", underline="single")
 
 
@@ -134,7 +139,10 @@ def _summary_sheet(wb, result: CampaignPlan, page: PageSetup) -> None:
                "named by its label)", result.bookings[[k for k in TEST_COLUMNS
                                                        if k in result.bookings]])
     _links(ws, r, result)
-    r = _table(ws, r + 1, "Models to build", result.models)
+    models = result.models
+    r = _table(ws, r + 1, "Models to build (mass: ballasted in the water of the model's "
+               "first test)", models[list(MODEL_COLUMNS) + [c for c in models
+                                                           if c not in MODEL_COLUMNS]])
     r = _table(ws, r + 1, "Hours per facility (tests and changeovers)", result.facility_hours)
     r = _long_text(ws, r + 1, "why these facilities and scales", list(result.reasons))
     _long_text(ws, r + 1, "notes", list(result.notes))
@@ -149,6 +157,10 @@ def _table(ws, r: int, title: str, frame) -> int:
     first, last = write_frame(ws, frame, r + 1, 1)
     _column_formats(ws, frame, first, last)
     wrap_rows(ws, range(r + 1, last + 1), range(1, len(frame.columns) + 1))
+    for j, name in enumerate(frame.columns, 1):
+        if str(name).endswith("day"):  # day numbers beside dates: centred, apart from them
+            for row in range(first, last + 1):
+                ws.cell(row=row, column=j).alignment = CENTER_TOP
     return last + 2
 
 
@@ -161,19 +173,22 @@ def _links(ws, after: int, result: CampaignPlan) -> None:
         cell.font = LINK_FONT
 
 
-def _long_text(ws, r: int, label: str, texts: list[str]) -> int:
-    """Texts in rows of their own, merged across the summary's columns and as high as their
-    wrapped lines; returns the next row."""
-    ws.cell(row=r, column=1, value=label).font = BOLD
-    width = sum(SUMMARY_WIDTHS)
-    last = len(SUMMARY_WIDTHS)
+def _long_text(ws, r: int, label: str | None, texts: list[str],
+               widths=SUMMARY_WIDTHS) -> int:
+    """Texts in rows of their own (after a bold label, when given), merged across the columns
+    of ``widths`` and as high as their wrapped lines; returns the next row."""
+    if label is not None:
+        ws.cell(row=r, column=1, value=label).font = BOLD
+        r += 1
+    width = sum(widths)
+    last = len(widths)
     for i, text in enumerate(texts):
-        row = r + 1 + i
+        row = r + i
         cell = ws.cell(row=row, column=1, value=text)
         cell.alignment = WRAP
         ws.merge_cells(start_row=row, start_column=1, end_row=row, end_column=last)
         ws.row_dimensions[row].height = 15.0 * wrapped_lines(text, width * 0.95)
-    return r + 1 + len(texts)
+    return r + len(texts)
 
 
 def _lettered(widths) -> dict[str, float]:
@@ -185,7 +200,7 @@ def _column_formats(ws, frame, first: int, last: int) -> None:
     """Hours, working days and Reynolds-number ratios to one decimal."""
     for j, name in enumerate(frame.columns, 1):
         name = str(name)
-        if name.endswith("[h]") or name.startswith("working days") or "ratio" in name:
+        if name.endswith("[h]") or name.startswith(("working days", "Re prototype")):
             for r in range(first, last + 1):
                 ws.cell(row=r, column=j).number_format = "0.0"
 
@@ -195,10 +210,11 @@ def _ranking_sheet(wb, result: CampaignPlan, page: PageSetup) -> None:
     ws = wb.create_sheet(RANKING_SHEET)
     ws.cell(row=1, column=1, value="Candidate facilities of each test, ranked by "
             f"{OBJECTIVE_WORDS[result.objective]}").font = TITLE_FONT
-    ws.cell(row=2, column=1, value="Each candidate on its own: the scales it admits for the "
-            "test and what binds them, and its figures at the largest model it admits. Green: "
-            "chosen; red: cannot take the test. A shared model is built to one scale for all "
-            "its tests (sheet 'Campaign').")
+    _long_text(ws, 2, None, ["Each candidate on its own: the scales it admits for the test "
+                             "and what binds them, and its figures at the largest model it "
+                             "admits. Green: chosen; red: cannot take the test. A shared model "
+                             "is built to one scale for all its tests (sheet 'Campaign')."],
+               RANKING_WIDTHS)
     r = 4
     rows: list[int] = []
     labels = result.labels

@@ -187,7 +187,7 @@ def test_least_mismatch_ranks_the_warm_tank_first():
     # cold: 1.31e-6 x 27.57^1.5, warm: 0.80e-6 x 34.46^1.5: the warm tank's model is nearer
     assert ratio[WARM["name"]] < ratio[COLD["name"]]
     assert list(r["facility"]) == [WARM["name"], COLD["name"]]
-    got = dict(zip(r["facility"], r["Reynolds ratio prototype/model [-]"], strict=True))
+    got = dict(zip(r["facility"], r["Re prototype / Re model [-]"], strict=True))
     for name, value in ratio.items():
         assert got[name] == pytest.approx(value, rel=1e-6)
 

@@ -45,7 +45,8 @@ def test_each_test_label_links_to_its_overview_sheet(written):
 def test_summary_lists_the_models_to_build_with_their_mass(written):
     ws = written[1][campaign_workbook.SUMMARY_SHEET]
     values = [c.value for row in ws.iter_rows() for c in row]
-    assert "Models to build" in values and "model mass, design [kg]" in values
+    assert any(str(v).startswith("Models to build") for v in values)
+    assert "model mass, design [kg]" in values
 
 
 def test_chosen_candidate_of_each_test_is_green_in_the_ranking(written, result):

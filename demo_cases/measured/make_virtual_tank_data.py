@@ -19,7 +19,18 @@ Files written beside this script (overwritten on every run):
 * ``ferry_resistance_runs_SYNTHETIC.csv``: SI units (m/s, N, degC);
 * ``ferry_resistance_runs_SYNTHETIC_us_units.csv``: the same runs in kn, lbf and degF;
 * ``ferry_open_water_SYNTHETIC.csv``: an invented open-water curve of a 4-bladed model
-  propeller (K_T and K_Q polynomials in J plus noise), with rotation rate and temperature.
+  propeller (K_T and K_Q polynomials in J plus noise), with rotation rate and temperature;
+* ``ferry_self_propulsion_SYNTHETIC.csv``: a self-propulsion test of the same hull and
+  propeller at the speeds of ``ferry_self_propulsion.toml`` (constant loading: one run per
+  speed, towed with the ship-point F_D), made from known propulsion factors w_TM = 0.235,
+  t = 0.165, eta_R = 1.015 (invented) and the noise-free open-water polynomials, with seeded
+  noise (0.3 % on thrust and torque, 0.05 % on the rate, 0.005 N on the tow force, 0.05 K);
+* ``ferry_self_propulsion_SYNTHETIC_us_units.csv``: the same runs in kn, rpm, lbf, lbf ft, degF;
+* ``ferry_self_propulsion_load_varying_SYNTHETIC.csv``: the load-varying method, three tow
+  forces (0.5, 1 and 1.5 F_D) per speed, the same factors and noise.
+
+The self-propulsion runs follow the 1978 ITTC method backwards: T (1 - t) = R_TM - F, the
+thrust identity on the open-water curve gives J and n, Q = K_Q(J) rho n^2 D^5/eta_R.
 
 Use::
 
@@ -43,6 +54,8 @@ from fluids_props.water import fresh_water_si
 from similitude.constants import G0 as G
 from similitude.constants import KNOT
 from similitude.correlations.friction import friction_coefficient
+from similitude.correlations.propulsion import friction_correction_force
+from similitude.prediction.extrapolation import ship_si
 
 HERE = Path(__file__).resolve().parent
 SEED = 20260302
@@ -64,8 +77,19 @@ NOISE_TEMPERATURE = 0.05  # K
 # The invented propeller: 4.2 m full scale; at the plan's scale about 0.2 m in the tank.
 PROPELLER = "diameter=4.2 m; pitch_ratio=1.0; chord_ratio=0.30; blades=4; thickness_ratio=0.04"
 OPEN_WATER_RATE = 20.0  # 1/s
+KT_POLY = (0.46, -0.30, -0.13)  # K_T = 0.46 - 0.30 J - 0.13 J^2 (invented)
+KQ_POLY = (0.062, -0.032, -0.012)
+PROPELLER_DIAMETER = 4.2  # m, full scale
+
+# The invented self-propulsion test: the "true" propulsion factors of the virtual tank.
+SP_CASE = HERE.parent / "ferry_self_propulsion.toml"
+W_TRUE, T_TRUE, ETA_R_TRUE = 0.235, 0.165, 1.015
+SP_TEMPERATURE = 290.45  # K, 17.3 degC
+SP_NOISE = {"thrust": 0.003, "torque": 0.003, "rate": 0.0005, "tow": 0.005, "temp": 0.05}
+LOAD_FACTORS = (0.5, 1.0, 1.5)
 
 LBF = 4.4482216152605  # N, exact by definition (NIST SP 811, 2008, Appendix B.8)
+LBF_FT = LBF * 0.3048  # N m, exact (NIST SP 811, 2008, B.8)
 
 
 def virtual_tank_ctm(froude, reynolds):
@@ -103,13 +127,51 @@ def resistance_runs(rng: np.random.Generator, scale: float, ship_speeds):
 def open_water_runs(rng: np.random.Generator):
     """Invented model open-water data: J, n [1/s], K_T, K_Q, temperature [K]."""
     j = np.round(np.arange(0.1, 1.01, 0.1), 3)
-    kt = 0.46 - 0.30 * j - 0.13 * j**2
-    kq = 0.062 - 0.032 * j - 0.012 * j**2
+    kt = np.polynomial.polynomial.polyval(j, KT_POLY)
+    kq = np.polynomial.polynomial.polyval(j, KQ_POLY)
     kt = kt * (1 + rng.normal(0, 0.004, j.size))
     kq = kq * (1 + rng.normal(0, 0.004, j.size))
     n = np.full(j.size, OPEN_WATER_RATE)
     t = TANK_TEMPERATURE + rng.normal(0.0, NOISE_TEMPERATURE, j.size)
     return j, n, kt, kq, t
+
+
+def ship_point_force(v, temperature, scale: float):
+    """F_D [N] of the virtual hull at model speeds v, revised ITTC-1978 form with k = K_TRUE
+    (the package's own correlations: the tank applies what a plan would give it)."""
+    ship = sim.ShipParticulars(SHIP_LENGTH, SHIP_WETTED_SURFACE, scale, transverse_area=210.0)
+    options = sim.ExtrapolationOptions()
+    s = ship_si(v, np.zeros_like(v), K_TRUE, ship, options)
+    state = fresh_water_si(temperature)
+    cfm = friction_coefficient(v * ship.model_length / state.kinematic_viscosity_si)
+    return friction_correction_force(state.density_si, v, ship.model_wetted_surface, cfm,
+                                     s["cfs"], K_TRUE, s["dcf"], s["ca"], s["caas"])
+
+
+def self_propulsion_runs(rng: np.random.Generator, scale: float, ship_speeds, factors=(1.0,)):
+    """Synthetic self-propulsion runs: speed, rate [1/s], thrust [N], torque [N m], tow force
+    [N], temperature [K], one per speed and tow-force factor, from the true factors."""
+    lm, sm, d = SHIP_LENGTH / scale, SHIP_WETTED_SURFACE / scale**2, PROPELLER_DIAMETER / scale
+    v = np.repeat(np.asarray(ship_speeds) / np.sqrt(scale), len(factors))
+    f = np.tile(factors, len(ship_speeds)) * ship_point_force(v, SP_TEMPERATURE, scale)
+    state = fresh_water_si(np.full(v.size, SP_TEMPERATURE))
+    rho = state.density_si
+    fn = v / np.sqrt(G * lm)
+    r_tm = virtual_tank_ctm(fn, v * lm / state.kinematic_viscosity_si) * 0.5 * rho * sm * v**2
+    thrust = (r_tm - f) / (1.0 - T_TRUE)
+    va = v * (1.0 - W_TRUE)
+    tau = thrust / (rho * d**2 * va**2)
+    a0, a1, a2 = KT_POLY  # K_T(J) = tau J^2: c J^2 - a1 J - a0 = 0 with c = tau - a2
+    c = tau - a2
+    j = (a1 + np.sqrt(a1**2 + 4.0 * c * a0)) / (2.0 * c)
+    n = va / (j * d)
+    torque = np.polynomial.polynomial.polyval(j, KQ_POLY) * rho * n**2 * d**5 / ETA_R_TRUE
+    noise = SP_NOISE
+    return (v, n * (1 + rng.normal(0, noise["rate"], v.size)),
+            thrust * (1 + rng.normal(0, noise["thrust"], v.size)),
+            torque * (1 + rng.normal(0, noise["torque"], v.size)),
+            f + rng.normal(0, noise["tow"], v.size),
+            SP_TEMPERATURE + rng.normal(0, noise["temp"], v.size))
 
 
 def _note(scale: float) -> str:
@@ -149,7 +211,38 @@ def main() -> None:
             "torque coefficient [-]", "water temperature [degC]"],
            [(f"{a:.3f}", f"{b:.2f}", f"{c:.5f}", f"{d:.6f}", f"{e - 273.15:.2f}")
             for a, b, c, d, e in zip(j, n, kt, kq, tw, strict=True)])
+    write_self_propulsion(rng)
     print(f"wrote SYNTHETIC data into {HERE} (scale 1:{scale:.6g})")
+
+
+def write_self_propulsion(rng: np.random.Generator) -> None:
+    """The self-propulsion files (constant loading, its US-unit twin, load varying)."""
+    plan = sim.plan(sim.load_case(SP_CASE))
+    speeds = plan.propulsion.speeds["prototype speed [m/s]"].to_numpy(float)
+    scale = float(plan.scale)
+    note = ("# SYNTHETIC self-propulsion data from an invented 'virtual tank' (see "
+            f"make_virtual_tank_data.py): not a measurement. Scale 1:{scale:.6g}; true w_TM = "
+            f"{W_TRUE}, t = {T_TRUE}, eta_R = {ETA_R_TRUE} built in.")
+    v, n, t, q, f, temp = self_propulsion_runs(rng, scale, speeds)
+    ids = [str(r) for r in plan.matrix["run"]]
+    header = ["run", "model speed [m/s]", "rotation rate [1/s]", "thrust [N]", "torque [N m]",
+              "tow force [N]", "water temperature [degC]"]
+    _write(HERE / "ferry_self_propulsion_SYNTHETIC.csv", note, header,
+           [(i, f"{a:.5f}", f"{b:.4f}", f"{c:.4f}", f"{d:.5f}", f"{e:.4f}",
+             f"{g - 273.15:.2f}") for i, a, b, c, d, e, g in zip(ids, v, n, t, q, f, temp,
+                                                                 strict=True)])
+    _write(HERE / "ferry_self_propulsion_SYNTHETIC_us_units.csv", note,
+           ["run", "model speed [kn]", "rotation rate [rpm]", "thrust [lbf]",
+            "torque [lbf ft]", "tow force [lbf]", "water temperature [degF]"],
+           [(i, f"{a / KNOT:.6f}", f"{b * 60:.4f}", f"{c / LBF:.6f}", f"{d / LBF_FT:.7f}",
+             f"{e / LBF:.6f}", f"{(g - 273.15) * 1.8 + 32:.4f}")
+            for i, a, b, c, d, e, g in zip(ids, v, n, t, q, f, temp, strict=True)])
+    v, n, t, q, f, temp = self_propulsion_runs(rng, scale, speeds, LOAD_FACTORS)
+    _write(HERE / "ferry_self_propulsion_load_varying_SYNTHETIC.csv",
+           note + " Load-varying method: 0.5, 1 and 1.5 F_D at each speed.", header,
+           [(str(k + 1), f"{a:.5f}", f"{b:.4f}", f"{c:.4f}", f"{d:.5f}", f"{e:.4f}",
+             f"{g - 273.15:.2f}") for k, (a, b, c, d, e, g) in enumerate(
+                 zip(v, n, t, q, f, temp, strict=True))])
 
 
 if __name__ == "__main__":

@@ -171,6 +171,33 @@ def correlation_allowance(length=None, reynolds=None, method: str = "ittc2017"):
     return _out((5.68 - 0.6 * np.log10(re)) * 1e-3)
 
 
+#: Ship Reynolds number above which C_A = (5.68 - 0.6 log10 Re) 1e-3 is negative:
+#: 10^(5.68/0.6), about 2.9e9 [-].
+NEGATIVE_CA_REYNOLDS = 10.0 ** (5.68 / 0.6)
+
+
+def correlation_allowance_note(ca, reynolds) -> str | None:
+    """A warning when a correlation allowance is negative, else None.
+
+    The revised C_A = (5.68 - 0.6 log10 Re) 1e-3 turns negative above Re = 10^(5.68/0.6),
+    about 2.9e9 (long, fast ships): it then lowers the predicted resistance, outside the data
+    the formula was derived from.
+
+    Parameters
+    ----------
+    ca, reynolds : array_like
+        C_A [-] and the ship Reynolds numbers they belong to [-].
+    """
+    ca = np.atleast_1d(np.asarray(ca, dtype=float))
+    if not np.any(ca < 0):
+        return None
+    re = np.atleast_1d(np.asarray(reynolds, dtype=float)) * np.ones_like(ca)
+    return (f"NEGATIVE CORRELATION ALLOWANCE: C_A is {ca.min():.2e} at a ship Reynolds number "
+            f"of {re[np.argmin(ca)]:.2e}; the revised C_A = (5.68 - 0.6 log10 Re) 1e-3 is "
+            f"negative above Re = {NEGATIVE_CA_REYNOLDS:.2e}, beyond the ships it was derived "
+            "from: use the facility's own correlation allowance (--correlation-allowance).")
+
+
 def air_resistance_coefficient(transverse_area, wetted_surface,
                                air_density: float = AIR_DENSITY_15C,
                                water_density: float = SEA_WATER_DENSITY_15C,
@@ -303,6 +330,40 @@ def prohaska_fit(froude_number, ctm, cfm, exponent: float = 4,
                          float(exponent), used)
 
 
+def prohaska_fit_many(froude_number, ctm, cfm, used, exponent: float = 4):
+    r"""Prohaska's fit of many sets of runs at once (one per row): (k, slope y), each ``(N,)``.
+
+    The same straight line as :func:`prohaska_fit`,
+    :math:`C_{TM}/C_{FM} = (1 + k) + y\,Fn^n/C_{FM}`, fitted by least squares in closed form
+    to the runs marked in ``used`` of every row (the Monte Carlo samples of an uncertainty
+    estimate re-fit k this way in one pass).
+
+    Parameters
+    ----------
+    froude_number, ctm, cfm : array_like
+        ``(N, n)``: N sets of n runs [-].
+    used : array_like of bool
+        ``(n,)``: the runs of the fit (the same for every set), at least three.
+    exponent : float
+        n on the Froude number [-].
+
+    References
+    ----------
+    .. [1] ITTC 7.5-02-03-01.4 Rev 04 (2017), form factor; Prohaska, Proc. 11th ITTC (1966).
+    """
+    used = np.asarray(used, dtype=bool)
+    if used.sum() < 3:
+        raise InputError(f"froude_range: only {int(used.sum())} run(s) in the fit; Prohaska's "
+                         "fit needs at least 3")
+    cf = np.atleast_2d(np.asarray(cfm, dtype=float))[:, used]
+    x = np.atleast_2d(np.asarray(froude_number, dtype=float))[:, used] ** exponent / cf
+    y = np.atleast_2d(np.asarray(ctm, dtype=float))[:, used] / cf
+    dx = x - x.mean(axis=1, keepdims=True)
+    slope = np.sum(dx * (y - y.mean(axis=1, keepdims=True)), axis=1) / np.sum(dx * dx, axis=1)
+    intercept = y.mean(axis=1) - slope * x.mean(axis=1)
+    return intercept - 1.0, slope
+
+
 def residuary_coefficient(ctm, cfm, form_factor):
     """Residuary resistance coefficient C_R = C_TM - (1 + k) C_FM [-], the same at model and
     full scale at equal Froude number (ITTC 7.5-02-03-01.4 Rev 04 2017).
@@ -429,6 +490,7 @@ __all__ = [
     "CORRELATION_METHODS",
     "DEFAULT_AIR_DRAG_COEFFICIENT",
     "DEFAULT_HULL_ROUGHNESS",
+    "NEGATIVE_CA_REYNOLDS",
     "ROUGHNESS_METHODS",
     "RUDDER_WAKE_ALLOWANCE",
     "SEA_WATER_DENSITY_15C",
@@ -436,8 +498,10 @@ __all__ = [
     "air_resistance_coefficient",
     "coefficient_from_resistance",
     "correlation_allowance",
+    "correlation_allowance_note",
     "effective_power",
     "prohaska_fit",
+    "prohaska_fit_many",
     "residuary_coefficient",
     "resistance_from_coefficient",
     "roughness_allowance",

@@ -45,6 +45,7 @@ import pandas as pd
 
 from similitude.constants import G0, KNOT
 from similitude.correlations import friction as _friction
+from similitude.correlations.ittc78 import correlation_allowance_note
 from similitude.correlations.propulsion import friction_correction_force
 from similitude.errors import InputError
 from similitude.planning.case import Case
@@ -58,6 +59,7 @@ from similitude.prediction.extrapolation import (
     ship_si,
 )
 from similitude.prediction.open_water_curve import OpenWaterCurve
+from similitude.prediction.power import loglog_interp
 
 #: Taylor's wake fraction w = a C_B + b by number of propellers (1 or 2) [3]_.
 TAYLOR_WAKE = {1: (0.50, -0.05), 2: (0.55, -0.20)}
@@ -231,21 +233,13 @@ def _resistance_cr(spec: PropulsionSpec, extrapolation, fn, v_m, k, ship, option
     if np.any(v_s < vs_given[0] * (1 - 1e-9)) or np.any(v_s > vs_given[-1] * (1 + 1e-9)):
         notes.append("Some planned speeds lie outside the resistance estimate's: its "
                      "power law through the nearest two points is extended.")
-    log_r = _loglog(np.log(v_s), np.log(vs_given), np.log(r_given))
+    r_ts = loglog_interp(v_s, vs_given, r_given)
     s = ship_si(v_m, np.zeros_like(v_m), k, ship, options)
-    cts = np.exp(log_r) / (0.5 * s["rho_s"] * ship.wetted_surface * v_s**2)
+    cts = r_ts / (0.5 * s["rho_s"] * ship.wetted_surface * v_s**2)
     notes.append("Resistance estimate: the full-scale R_TS given (propulsion.resistance_"
                  "estimate), interpolated log-log in speed; C_R = C_TS - (1+k) C_FS - dC_F - "
                  "C_A - C_AAS.")
     return cts - s["cts"]
-
-
-def _loglog(x, xp, yp):
-    """Piecewise-linear interpolation of y(x) that extends the end segments (log-log use)."""
-    if xp.size == 1:
-        return np.full_like(x, yp[0])
-    i = np.clip(np.searchsorted(xp, x) - 1, 0, xp.size - 2)
-    return yp[i] + (yp[i + 1] - yp[i]) * (x - xp[i]) / (xp[i + 1] - xp[i])
 
 
 def operating_point(curve: OpenWaterCurve, resistance, tow_force, speed, density, diameter,
@@ -325,6 +319,9 @@ def plan_self_propulsion(case: Case, solution: Solution, matrix) -> SelfPropulsi
         "air resistance C_AAS [-]": np.full(vp.size, s["caas"]),
         "skin-friction correction F_D [N]": f_d,
     })
+    negative = correlation_allowance_note(s["ca"], s["re_s"])
+    if negative:
+        notes.append(negative)
     curve = open_water_curve(spec)
     cr = _resistance_cr(spec, extrapolation, fn, v_m, k, ship, options, notes)
     w, t, eta, factors_source = _factors(case, spec)

@@ -484,19 +484,28 @@ def _model_coefficients(v, r_m, rho_m, nu_m, ship: ShipParticulars, line: str):
     return fn, re, np.atleast_1d(ctm), np.atleast_1d(cfm)
 
 
-def _form_factor(fn, ctm, cfm, options: ExtrapolationOptions, form_factor: float | None):
-    """(k, Prohaska fit or None): 0 in Froude's method, else the given k, else the fit."""
+def _form_factor(fn, ctm, cfm, options: ExtrapolationOptions, form_factor, fit_used=None):
+    """(k, Prohaska fit or None): 0 in Froude's method, else the given k, else the fit.
+
+    For a batch of samples (2-D arrays, one row each) k is a column ``(N, 1)``: the given
+    ones, or Prohaska's line re-fitted to each row over the runs ``fit_used``."""
     if options.method == "froude":
         return 0.0, None
     k_given = form_factor if form_factor is not None else options.form_factor
     if k_given is not None:
-        return float(k_given), None
+        return (float(k_given) if np.ndim(k_given) == 0 else np.asarray(k_given, float)), None
+    if np.ndim(ctm) == 2:
+        if fit_used is None:
+            lo, hi = options.froude_range
+            fit_used = (fn[0] >= lo) & (fn[0] <= hi)
+        k, _ = ittc78.prohaska_fit_many(fn, ctm, cfm, fit_used, options.prohaska_exponent)
+        return k[:, None], None
     fit = ittc78.prohaska_fit(fn, ctm, cfm, options.prohaska_exponent, options.froude_range)
     return fit.form_factor, fit
 
 
 def _blockage_correction(v_carriage, fn, ctm, cfm, ship: ShipParticulars,
-                         options: ExtrapolationOptions, form_factor: float | None):
+                         options: ExtrapolationOptions, form_factor, fit_used=None):
     """(dV/V, blockage ratio m, depth Froude number) of each run, from the uncorrected
     coefficients (ITTC 7.5-02-02-01 §3.6.3)."""
     tank = options.tank
@@ -507,7 +516,7 @@ def _blockage_correction(v_carriage, fn, ctm, cfm, ship: ShipParticulars,
     depth_froude = v_carriage / np.sqrt(G0 * tank.depth)
     # The viscous share R_V/R_T of Schuster's wave term needs k: a first estimate from the
     # uncorrected runs, then the whole model analysis is redone on the corrected speeds.
-    k0, _ = _form_factor(fn, ctm, cfm, options, form_factor)
+    k0, _ = _form_factor(fn, ctm, cfm, options, form_factor, fit_used)
     viscous = np.clip((1.0 + k0) * cfm / ctm, 0.0, 1.0)
     lb = None if ship.beam is None else ship.length / ship.beam
     dvv = np.atleast_1d(_blockage.tank_speed_correction(
@@ -516,7 +525,7 @@ def _blockage_correction(v_carriage, fn, ctm, cfm, ship: ShipParticulars,
     return dvv, blockage_ratio, depth_froude
 
 
-def _standard_temperature_si(v_m, ctm, cfm, k: float, ship: ShipParticulars,
+def _standard_temperature_si(v_m, ctm, cfm, k, ship: ShipParticulars,
                              options: ExtrapolationOptions) -> dict[str, Any]:
     """C_TM and R_TM corrected to the standard temperature (fresh tank water), and C_R."""
     lm, sm = ship.model_length, ship.model_wetted_surface
@@ -575,9 +584,13 @@ def ship_si(v_m, cr, k, ship: ShipParticulars, options: ExtrapolationOptions) ->
 
 
 def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
-                options: ExtrapolationOptions, form_factor: float | None = None,
-                stimulator_drag=None) -> dict[str, Any]:
+                options: ExtrapolationOptions, form_factor=None,
+                stimulator_drag=None, fit_used=None) -> dict[str, Any]:
     """The extrapolation on SI arrays (no units, no DataFrames).
+
+    The run arrays are ``(n,)`` for one set of runs or ``(N, n)`` for N samples of them (an
+    uncertainty estimate): every step broadcasts over the leading axis, and k is then a
+    column ``(N, 1)``, re-fitted to each sample unless given.
 
     Parameters
     ----------
@@ -589,10 +602,14 @@ def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
         Tank water temperature [K].
     ship : ShipParticulars
     options : ExtrapolationOptions
-    form_factor : float, optional
-        k [-]; overrides ``options`` (the uncertainty propagation holds k fixed this way).
+    form_factor : float or array_like, optional
+        k [-]; overrides ``options`` (the uncertainty propagation holds k fixed this way); a
+        column ``(N, 1)`` gives each sample its own.
     stimulator_drag : array_like, optional
         Parasitic drag of the turbulence stimulators [N], subtracted from the resistance.
+    fit_used : array_like of bool, optional
+        ``(n,)``: the runs of Prohaska's fit for a batch of samples (default: those of the
+        first sample inside the Froude range), so every sample is fitted to the same runs.
 
     Returns
     -------
@@ -611,10 +628,10 @@ def pipeline_si(speed, resistance, temperature, ship: ShipParticulars,
                                           options.friction_line)
         fn0, _, ctm0, cfm0 = uncorrected
         dvv, blockage_ratio, depth_froude = _blockage_correction(
-            v_carriage, fn0, ctm0, cfm0, ship, options, form_factor)
+            v_carriage, fn0, ctm0, cfm0, ship, options, form_factor, fit_used)
     v_m = v_carriage * (1.0 + dvv)
     fn, re_m, ctm, cfm = _model_coefficients(v_m, r_m, rho_m, nu_m, ship, options.friction_line)
-    k, fit = _form_factor(fn, ctm, cfm, options, form_factor)
+    k, fit = _form_factor(fn, ctm, cfm, options, form_factor, fit_used)
     standard = _standard_temperature_si(v_m, ctm, cfm, k, ship, options)
     return {
         "carriage_speed": v_carriage, "resistance_measured": r_meas, "resistance": r_m,
@@ -762,6 +779,9 @@ def _notes(options: ExtrapolationOptions, a: dict[str, Any]) -> tuple[str, ...]:
                      "despite the stimulators; the ITTC-1957 line assumes turbulent flow.")
     if options.blockage is None:
         notes.append("No blockage correction applied.")
+    negative = ittc78.correlation_allowance_note(a["ca"], a["re_s"])
+    if negative:
+        notes.append(negative)
     return tuple(notes)
 
 

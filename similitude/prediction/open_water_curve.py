@@ -10,9 +10,9 @@ without prescribing the fit).
 Every method is vectorised over a leading sample axis: the coefficient arrays may be
 ``(degree + 1,)`` (one curve) or ``(N, degree + 1)`` (N curves, e.g. the Monte Carlo samples of
 :mod:`similitude.prediction.propulsion_uncertainty`), and the values they are evaluated at
-``(..., m)``. The inverses are found by bisection on arrays (no loop over values), inside the
-bracket of J where the curve is defined; a value outside the curve's range is returned at the
-bracket end and flagged in the ``inside`` mask.
+``(..., m)``. The inverses are found on arrays (no loop over values) by bisection inside the
+bracket of J where the curve is defined, polished by Newton's method; a value outside the
+curve's range is returned at the bracket end and flagged in the ``inside`` mask.
 
 References
 ----------
@@ -34,8 +34,13 @@ from similitude.errors import InputError
 #: Degree of the fairing polynomials unless told otherwise (cubic; common practice).
 DEFAULT_DEGREE = 3
 
-#: Bisection steps of the inverses: the bracket shrinks by 2**-52, to floating-point precision.
-_BISECTION_STEPS = 52
+#: Bisection steps of the inverses before Newton's method takes over: the bracket shrinks to
+#: 2**-12 of its width, where the polynomials are straight to a few parts in 1e6.
+_BISECTION_STEPS = 12
+
+#: Newton steps after the bisection, each kept inside the bracket: from 2**-12 of the width
+#: the error squares at each step, to floating-point precision in three.
+_NEWTON_STEPS = 4
 
 
 def horner(coefficients, x):
@@ -71,8 +76,17 @@ def fit_matrix(advance_ratio, degree: int) -> np.ndarray:
     return np.linalg.pinv(np.polynomial.polynomial.polyvander(j, degree))
 
 
-def _bisect(g, lo: float, hi: float, shape) -> tuple[np.ndarray, np.ndarray]:
-    """Root of a decreasing function g on [lo, hi], elementwise: (root, inside mask)."""
+def derivative(coefficients) -> np.ndarray:
+    """Coefficients of the derivative of polynomials ``(m,)`` or ``(N, m)``."""
+    c = np.asarray(coefficients, dtype=float)
+    return c[..., 1:] * np.arange(1, c.shape[-1])
+
+
+def _root(g, dg, lo: float, hi: float, shape) -> tuple[np.ndarray, np.ndarray]:
+    """Root of a decreasing function g on [lo, hi], elementwise: (root, inside mask).
+
+    Bisection narrows every bracket first, then Newton's method (derivative ``dg``) polishes
+    the root inside it: each step is clipped to the bracket, so it cannot leave it."""
     a = np.full(shape, lo)
     b = np.full(shape, hi)
     ga, gb = g(a), g(b)
@@ -82,10 +96,13 @@ def _bisect(g, lo: float, hi: float, shape) -> tuple[np.ndarray, np.ndarray]:
         above = g(m) > 0
         a = np.where(above, m, a)
         b = np.where(above, b, m)
-    root = 0.5 * (a + b)
+    x = 0.5 * (a + b)
+    for _ in range(_NEWTON_STEPS):
+        slope = dg(x)
+        step = np.divide(g(x), slope, out=np.zeros_like(x), where=slope < 0)
+        x = np.clip(x - step, a, b)
     # Outside the curve's range: the nearer end, flagged.
-    root = np.where(inside, root, np.where(ga < 0, lo, hi))
-    return root, inside
+    return np.where(inside, x, np.where(ga < 0, lo, hi)), inside
 
 
 @dataclass(frozen=True, eq=False)  # holds arrays
@@ -172,24 +189,28 @@ class OpenWaterCurve:
         """The J interval the inverses search: 0 to 1.2 times the highest measured J."""
         return 0.0, 1.2 * self.advance_range[1]
 
-    def _solve(self, g, like) -> tuple[np.ndarray, np.ndarray]:
+    def _solve(self, g, dg, like) -> tuple[np.ndarray, np.ndarray]:
         lo, hi = self.bracket
-        return _bisect(g, lo, hi, np.shape(like))
+        return _root(g, dg, lo, hi, np.shape(like))
 
     def advance_ratio_at_thrust(self, kt) -> tuple[np.ndarray, np.ndarray]:
         """J where the curve's K_T equals ``kt`` (thrust identity): (J, inside mask)."""
         target = np.asarray(kt, dtype=float)
-        return self._solve(lambda j: self.kt(j) - target, target)
+        dkt = derivative(self.thrust)
+        return self._solve(lambda j: self.kt(j) - target, lambda j: horner(dkt, j), target)
 
     def advance_ratio_at_torque(self, kq) -> tuple[np.ndarray, np.ndarray]:
         """J where the curve's K_Q equals ``kq`` (torque identity): (J, inside mask)."""
         target = np.asarray(kq, dtype=float)
-        return self._solve(lambda j: self.kq(j) - target, target)
+        dkq = derivative(self.torque)
+        return self._solve(lambda j: self.kq(j) - target, lambda j: horner(dkq, j), target)
 
     def advance_ratio_at_loading(self, loading) -> tuple[np.ndarray, np.ndarray]:
         """J where K_T(J) = (K_T/J²)·J², the operating point at a loading: (J, inside mask)."""
         tau = np.asarray(loading, dtype=float)
-        return self._solve(lambda j: self.kt(j) - tau * j * j, tau)
+        dkt = derivative(self.thrust)
+        return self._solve(lambda j: self.kt(j) - tau * j * j,
+                           lambda j: horner(dkt, j) - 2.0 * tau * j, tau)
 
     def shifted(self, thrust, torque) -> OpenWaterCurve:
         """The curve with ``thrust`` and ``torque`` coefficients added (e.g. the full-scale
@@ -208,4 +229,77 @@ class OpenWaterCurve:
                              "K_Q [-]": self.kq(j), "eta_0 [-]": self.efficiency(j)})
 
 
-__all__ = ["DEFAULT_DEGREE", "OpenWaterCurve", "fit_matrix", "horner"]
+def usable_degree(advance_ratio, degree: int) -> int:
+    """``degree``, lowered to one below the number of distinct advance ratios (at least 1)."""
+    distinct = np.unique(np.round(np.asarray(advance_ratio, float), 9)).size
+    return max(1, min(degree, distinct - 1))
+
+
+@dataclass(frozen=True, eq=False)  # holds arrays
+class PropellerCurves:
+    """The fits behind the two open-water curves of a self-propulsion prediction.
+
+    The propeller in the test (the design propeller, or a stock propeller) is analysed on its
+    model curve; the full-scale prediction uses the design propeller's full-scale curve, its
+    model curve plus the fitted scale correction (K_TS - K_TM, K_QS - K_QM of every run,
+    :func:`similitude.prediction.open_water.scale_open_water`). The fits are linear in the
+    measured K_T and K_Q, so N perturbed sets of them are faired in one product.
+
+    Attributes
+    ----------
+    test_j, design_j : numpy.ndarray
+        Advance ratios of the two open-water tests (the same test when no stock propeller).
+    test_fit, design_fit : numpy.ndarray
+        Their least-squares operators (:func:`fit_matrix`).
+    shift_kt, shift_kq : numpy.ndarray
+        Coefficients of the full-scale correction of the design propeller.
+    test_source, design_source : str
+    stock : bool
+        True when the test used a stock propeller.
+    """
+
+    test_j: np.ndarray
+    test_fit: np.ndarray
+    design_j: np.ndarray
+    design_fit: np.ndarray
+    shift_kt: np.ndarray
+    shift_kq: np.ndarray
+    test_source: str = ""
+    design_source: str = ""
+    stock: bool = False
+
+    @classmethod
+    def build(cls, design_j, design_kt_model, design_kq_model, design_kt_ship, design_kq_ship,
+              degree: int = DEFAULT_DEGREE, test_j=None, design_source: str = "",
+              test_source: str = "") -> PropellerCurves:
+        """The fits from the design propeller's model and full-scale points and, for a stock
+        propeller, the advance ratios of its own open-water test (``test_j``)."""
+        dj = np.asarray(design_j, float)
+        design_fit = fit_matrix(dj, usable_degree(dj, degree))
+        stock = test_j is not None
+        tj = np.asarray(test_j, float) if stock else dj
+        test_fit = fit_matrix(tj, usable_degree(tj, degree)) if stock else design_fit
+        shift_kt = (np.asarray(design_kt_ship, float) - design_kt_model) @ design_fit.T
+        shift_kq = (np.asarray(design_kq_ship, float) - design_kq_model) @ design_fit.T
+        return cls(tj, test_fit, dj, design_fit, shift_kt, shift_kq,
+                   test_source if stock else design_source, design_source, stock)
+
+    def curves(self, test_kt, test_kq, design_kt=None, design_kq=None):
+        """(curve of the propeller in the test, full-scale curve of the design propeller) from
+        measured K_T and K_Q, ``(n,)`` or ``(N, n)``; without a stock propeller the design
+        values are the test's."""
+        if not self.stock:
+            design_kt, design_kq = test_kt, test_kq
+        test = OpenWaterCurve(np.asarray(test_kt, float) @ self.test_fit.T,
+                              np.asarray(test_kq, float) @ self.test_fit.T,
+                              (float(self.test_j.min()), float(self.test_j.max())),
+                              self.test_source)
+        model = OpenWaterCurve(np.asarray(design_kt, float) @ self.design_fit.T,
+                               np.asarray(design_kq, float) @ self.design_fit.T,
+                               (float(self.design_j.min()), float(self.design_j.max())),
+                               self.design_source)
+        return test, model.shifted(self.shift_kt, self.shift_kq)
+
+
+__all__ = ["DEFAULT_DEGREE", "OpenWaterCurve", "PropellerCurves", "derivative", "fit_matrix",
+           "horner", "usable_degree"]

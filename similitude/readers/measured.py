@@ -25,14 +25,19 @@ import pint
 
 from fluids_props.water import fresh_water_si
 from similitude.errors import InputError
-from similitude.prediction.runs import OpenWaterRuns, ResistanceRuns, run_id
+from similitude.prediction.runs import (
+    EXTRA_RUN_PREFIX,
+    RUN_ID_KINDS,
+    OpenWaterRuns,
+    ResistanceRuns,
+    SelfPropulsionRuns,
+    run_id,
+)
 from similitude.units import radians_per_turn, spell_revolutions, to_si, ureg
 
 _HEADER = re.compile(r"^\s*(?P<name>.*?)\s*\[(?P<unit>[^\]]*)\]\s*$")
 
 FORCE = "[mass] * [length] / [time] ** 2"
-EXTRA_RUN_PREFIX = "extra "
-"""Run id given to a row whose run cell is blank: a run beyond the plan's matrix."""
 SPEED = "[length] / [time]"
 TORQUE = "[mass] * [length] ** 2 / [time] ** 2"
 
@@ -94,6 +99,23 @@ OPEN_WATER_COLUMNS: tuple[ColumnSpec, ...] = (
     ColumnSpec("torque", ("torque",), TORQUE, "N*m", False, "torque [N m]"),
     ColumnSpec("temperature", ("water temperature", "temperature"), "[temperature]", "K",
                False, "water temperature [degC]"),
+)
+
+
+SELF_PROPULSION_COLUMNS: tuple[ColumnSpec, ...] = (
+    ColumnSpec("run", ("run", "run id", "run number", "run no"), None, ""),
+    ColumnSpec("speed", ("model speed", "carriage speed", "speed"), SPEED, "m/s", True,
+               "model speed [m/s]"),
+    ColumnSpec("rotation_rate", ("rotation rate", "rate of revolution", "revolutions",
+                                 "propeller rate"), "1 / [time]", "1/s", True,
+               "rotation rate [rpm]"),
+    ColumnSpec("thrust", ("thrust", "propeller thrust"), FORCE, "N", True, "thrust [N]"),
+    ColumnSpec("torque", ("torque", "propeller torque"), TORQUE, "N*m", True, "torque [N m]"),
+    ColumnSpec("tow_force", ("tow force", "towing force", "skin friction correction",
+                             "skin-friction correction", "friction correction force"), FORCE,
+               "N", True, "tow force [N]"),
+    ColumnSpec("temperature", ("water temperature", "temperature"), "[temperature]", "K",
+               True, "water temperature [degC]"),
 )
 
 
@@ -342,14 +364,47 @@ def _check_ids(ids: list[str], where: str, plan_runs: Iterable[Any] | None,
                                 f"plan's run matrix; expected one of {_short(sorted(allowed))}")
 
 
+def _positive_cells(cols: dict[str, Any], columns: Iterable[tuple[str, str]], where: str,
+                    problems: list[str]) -> None:
+    """A problem for each cell of the (key, column name) columns that is not > 0."""
+    for key, label in columns:
+        for i, v in enumerate(cols[key]):
+            if not v > 0:
+                problems.append(f"{where}row {i + 2}, column {label!r}: {label} {v:g} "
+                                f"(SI) is not positive; expected a {label} > 0")
+
+
+def _tank_temperatures(values: np.ndarray, where: str, problems: list[str]) -> None:
+    """A problem for each water temperature outside 0 to 40 degC (a towing tank's)."""
+    for i, v in enumerate(values):
+        if not 273.15 <= v <= 313.15:
+            problems.append(f"{where}row {i + 2}, column 'water temperature': {v - 273.15:.2f} "
+                            "degC; expected a tank temperature between 0 and 40 degC")
+
+
 def _short(items: list[str], limit: int = 8) -> str:
     text = ", ".join(items[:limit])
     return text + (", ..." if len(items) > limit else "")
 
 
+def _ids(cols: dict[str, Any], n: int, run_ids: str, plan_runs, where: str,
+         problems: list[str]) -> tuple[list[str], str]:
+    """(run ids, their kind): the file's ids checked (against the plan only when they are the
+    plan's), or rows numbered 1, 2 ... when the file has no run column (never compared with
+    the plan)."""
+    if run_ids not in RUN_ID_KINDS[:3]:
+        raise InputError(f"run ids: {run_ids!r} is unknown; expected one of "
+                         + ", ".join(RUN_ID_KINDS[:3]))
+    if "run" not in cols:
+        return [str(i + 1) for i in range(n)], "numbered"
+    ids = cols["run"]
+    _check_ids(ids, where, plan_runs if run_ids == "plan" else None, problems)
+    return ids, run_ids
+
+
 def resistance_runs_from_frame(frame, temperature: Any = None,
                                plan_runs: Iterable[Any] | None = None,
-                               source: str = "") -> ResistanceRuns:
+                               source: str = "", run_ids: str = "plan") -> ResistanceRuns:
     """Check and convert a raw table of resistance runs.
 
     Parameters
@@ -359,12 +414,16 @@ def resistance_runs_from_frame(frame, temperature: Any = None,
     temperature : str or Quantity, optional
         One water temperature for all runs, when the file has no temperature column.
     plan_runs : iterable, optional
-        Run ids of the plan's matrix; a run id outside it is an error. Without a ``run``
-        column the rows are free (numbered 1, 2, ...) and not checked against the plan; a
-        blank run cell marks one extra run beyond the plan (ids ``"extra 1"``, ``"extra 2"`` ...
-        in file order).
+        Run ids of the plan's matrix; with ``run_ids="plan"`` a run id outside it is an error.
+        Without a ``run`` column the rows are numbered 1, 2, ... and never compared with the
+        plan; a blank run cell marks one extra run beyond the plan (ids ``"extra 1"``,
+        ``"extra 2"`` ... in file order).
     source : str
         File name for the messages.
+    run_ids : str
+        What the file's run ids are: ``"plan"`` (the plan's run numbers; default),
+        ``"facility"`` (the facility's own, matched to the plan by speed) or ``"free"`` (not
+        matched); see :data:`similitude.prediction.runs.RUN_ID_KINDS`.
 
     Returns
     -------
@@ -381,18 +440,10 @@ def resistance_runs_from_frame(frame, temperature: Any = None,
         raise InputError(f"{where}no runs in the file; expected one row per run")
     cols = columns_to_si(frame, RESISTANCE_COLUMNS, source, {"temperature": temperature})
     problems: list[str] = []
-    ids = cols.get("run") or [str(i + 1) for i in range(len(frame))]
-    _check_ids(ids, where, plan_runs if "run" in cols else None, problems)
-    for key, label, header in (("speed", "model speed", "model speed"),
-                               ("resistance", "total resistance", "total resistance")):
-        for i, v in enumerate(cols[key]):
-            if not v > 0:
-                problems.append(f"{where}row {i + 2}, column {header!r}: {label} {v:g} "
-                                f"(SI) is not positive; expected a {label} > 0")
-    for i, v in enumerate(cols["temperature"]):
-        if not 273.15 <= v <= 313.15:
-            problems.append(f"{where}row {i + 2}, column 'water temperature': {v - 273.15:.2f} "
-                            "degC; expected a tank temperature between 0 and 40 degC")
+    ids, kind = _ids(cols, len(frame), run_ids, plan_runs, where, problems)
+    _positive_cells(cols, (("speed", "model speed"), ("resistance", "total resistance")),
+                    where, problems)
+    _tank_temperatures(cols["temperature"], where, problems)
     if "stimulator_drag" in cols:
         for i, v in enumerate(cols["stimulator_drag"]):
             if v < 0 or v >= cols["resistance"][i]:
@@ -402,12 +453,13 @@ def resistance_runs_from_frame(frame, temperature: Any = None,
         raise InputError(problems)
     return ResistanceRuns(tuple(ids), cols["speed"], cols["resistance"], cols["temperature"],
                           cols.get("sinkage"), cols.get("trim"), cols.get("stimulator_drag"),
-                          source)
+                          source, kind)
 
 
 def read_resistance_runs(path: str | Path, temperature: Any = None,
                          plan_runs: Iterable[Any] | None = None,
-                         sheet: str | int | None = None) -> ResistanceRuns:
+                         sheet: str | int | None = None,
+                         run_ids: str = "plan") -> ResistanceRuns:
     """Read measured resistance runs from a CSV or xlsx file.
 
     Parameters
@@ -423,13 +475,16 @@ def read_resistance_runs(path: str | Path, temperature: Any = None,
         Run ids of the plan's matrix (``plan.matrix["run"]``).
     sheet : str or int, optional
         Worksheet of an xlsx file.
+    run_ids : str
+        ``"plan"`` (default), ``"facility"`` or ``"free"``: see
+        :func:`resistance_runs_from_frame`.
 
     Returns
     -------
     ResistanceRuns
     """
     frame = read_table(path, sheet)
-    return resistance_runs_from_frame(frame, temperature, plan_runs, Path(path).name)
+    return resistance_runs_from_frame(frame, temperature, plan_runs, Path(path).name, run_ids)
 
 
 def open_water_runs_from_frame(frame, diameter: float | None = None,
@@ -511,6 +566,84 @@ def open_water_runs_from_frame(frame, diameter: float | None = None,
                          np.asarray(kq, float), cols.get("temperature"), n, va, source)
 
 
+def self_propulsion_runs_from_frame(frame, temperature: Any = None, source: str = "",
+                                    plan_runs: Iterable[Any] | None = None,
+                                    run_ids: str = "plan") -> SelfPropulsionRuns:
+    """Check and convert a raw table of self-propulsion runs.
+
+    Parameters
+    ----------
+    frame : pandas.DataFrame
+        One row per run (per tow force in the load-varying method); headers with units (see
+        :data:`SELF_PROPULSION_COLUMNS`): model speed, rotation rate (``[rpm]``, ``[rps]``,
+        ``[Hz]`` or ``[1/s]``, all counting revolutions), thrust and torque per propeller, the
+        tow force applied, the water temperature (or the ``temperature`` argument).
+    temperature : str or Quantity, optional
+        One water temperature for all runs.
+    source : str
+    plan_runs : iterable, optional
+        Run ids of the plan's matrix (checked with ``run_ids="plan"``).
+    run_ids : str
+        ``"plan"`` (default), ``"facility"`` or ``"free"``: see
+        :func:`resistance_runs_from_frame`.
+
+    Returns
+    -------
+    SelfPropulsionRuns
+
+    Raises
+    ------
+    InputError
+        Missing columns, non-numeric cells, non-positive speeds, rates, thrusts or torques,
+        temperatures outside 0 to 40 degC, duplicate run ids; one line each.
+    """
+    where = f"{source}: " if source else ""
+    if len(frame) == 0:
+        raise InputError(f"{where}no runs in the file; expected one row per run")
+    cols = columns_to_si(frame, SELF_PROPULSION_COLUMNS, source, {"temperature": temperature})
+    problems: list[str] = []
+    ids, kind = _ids(cols, len(frame), run_ids, plan_runs, where, problems)
+    _positive_cells(cols, (("speed", "model speed"), ("rotation_rate", "rotation rate"),
+                           ("thrust", "thrust"), ("torque", "torque")), where, problems)
+    _tank_temperatures(cols["temperature"], where, problems)
+    if problems:
+        raise InputError(problems)
+    return SelfPropulsionRuns(tuple(ids), cols["speed"], cols["rotation_rate"], cols["thrust"],
+                              cols["torque"], cols["tow_force"], cols["temperature"], source,
+                              kind)
+
+
+def read_self_propulsion_runs(path: str | Path, temperature: Any = None,
+                              sheet: str | int | None = None,
+                              plan_runs: Iterable[Any] | None = None,
+                              run_ids: str = "plan") -> SelfPropulsionRuns:
+    """Read measured self-propulsion runs from a CSV or xlsx file.
+
+    Parameters
+    ----------
+    path : str or Path
+        The file; columns (units in brackets, any unit of the right dimension):
+        ``model speed [kn]``, ``rotation rate [rpm]``, ``thrust [N]``, ``torque [N m]``,
+        ``tow force [N]``, ``water temperature [degC]``, optional ``run``.
+    temperature : str or Quantity, optional
+        One water temperature for all runs, e.g. ``"15.4 degC"``.
+    sheet : str or int, optional
+        Worksheet of an xlsx file.
+    plan_runs : iterable, optional
+        Run ids of the self-propulsion plan's matrix.
+    run_ids : str
+        ``"plan"`` (default), ``"facility"`` or ``"free"``: see
+        :func:`resistance_runs_from_frame`.
+
+    Returns
+    -------
+    SelfPropulsionRuns
+    """
+    frame = read_table(path, sheet)
+    return self_propulsion_runs_from_frame(frame, temperature, Path(path).name, plan_runs,
+                                           run_ids)
+
+
 def read_open_water_runs(path: str | Path, diameter: Any = None, density: Any = None,
                          temperature: Any = None,
                          sheet: str | int | None = None) -> OpenWaterRuns:
@@ -546,12 +679,15 @@ __all__ = [
     "EXTRA_RUN_PREFIX",
     "OPEN_WATER_COLUMNS",
     "RESISTANCE_COLUMNS",
+    "SELF_PROPULSION_COLUMNS",
     "ColumnSpec",
     "columns_to_si",
     "open_water_runs_from_frame",
     "read_open_water_runs",
     "read_resistance_runs",
     "read_table",
+    "read_self_propulsion_runs",
     "resistance_runs_from_frame",
+    "self_propulsion_runs_from_frame",
     "split_header",
 ]

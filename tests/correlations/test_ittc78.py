@@ -254,3 +254,15 @@ def test_full_scale_wake_is_smaller_than_model_wake():
 def test_negative_speed_is_refused():
     with pytest.raises(InputError, match="speed: got -1"):
         effective_power(2e-3, 1026.0, 8000.0, -1.0)
+
+
+def test_correlation_allowance_turns_negative_above_re_2_9e9_and_is_flagged():
+    # C_A = (5.68 - 0.6 log10 Re) 1e-3 = 0 at log10 Re = 5.68/0.6 = 9.4667, Re = 2.93e9
+    from similitude.correlations.ittc78 import NEGATIVE_CA_REYNOLDS, correlation_allowance_note
+
+    assert NEGATIVE_CA_REYNOLDS == pytest.approx(2.9286e9, rel=1e-4)
+    assert correlation_allowance(reynolds=NEGATIVE_CA_REYNOLDS) == pytest.approx(0, abs=1e-15)
+    re = np.array([1e9, 5e9])
+    note = correlation_allowance_note(correlation_allowance(reynolds=re), re)
+    assert note is not None and "NEGATIVE CORRELATION ALLOWANCE" in note and "5.00e+09" in note
+    assert correlation_allowance_note(correlation_allowance(reynolds=1e9), 1e9) is None

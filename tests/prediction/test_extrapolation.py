@@ -317,3 +317,17 @@ def test_negative_fitted_form_factor_draws_a_note():
     # k < 0 has no physical meaning for a ship hull (common practice)
     e = extrapolate(synthetic_runs(SHIP, -0.05), SHIP)
     assert any("not physical" in n for n in e.notes)
+
+
+def test_negative_correlation_allowance_is_flagged_in_the_notes():
+    # a 400 m ship at 1:50: Re_S about 5e9 at the top speed, above 2.9e9 where the revised
+    # C_A = (5.68 - 0.6 log10 Re) 1e-3 changes sign (ITTC 7.5-02-03-01.4 Rev 04, 2017)
+    from similitude.prediction.runs import ResistanceRuns
+
+    ship = ShipParticulars(400.0, 30000.0, 50.0)
+    v = np.array([0.12, 0.14, 0.16, 0.18, 0.2, 0.24]) * np.sqrt(9.80665 * ship.model_length)
+    runs = ResistanceRuns(tuple("123456"), v, 0.004 * 500 * ship.model_wetted_surface * v**2,
+                          np.full(6, 290.0))
+    e = extrapolate(runs, ship, form_factor=0.2)
+    assert np.any(e.arrays["ca"] < 0)
+    assert any(n.startswith("NEGATIVE CORRELATION ALLOWANCE") for n in e.notes)

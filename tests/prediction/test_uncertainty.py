@@ -113,11 +113,35 @@ def test_prohaska_intercept_error_equals_the_least_squares_standard_error():
     assert prohaska_intercept_error(e) == pytest.approx(ref.intercept_stderr, rel=1e-8)
 
 
-def test_fitted_form_factor_takes_its_uncertainty_from_the_fit():
+def test_fitted_form_factor_is_refitted_not_counted_again():
+    # With k fitted, each perturbed copy re-fits Prohaska's line: the runs' resistance acts
+    # through k, and k is no input of its own (no "form factor" contribution).
     e = extrapolate(_runs(), SHIP)
-    result = propagate(e, MeasurementUncertainty())
-    assert result.inputs.form_factor == pytest.approx(prohaska_intercept_error(e))
-    assert np.all(result.table["u(C_TS) from form factor [-]"] > 0)
+    result = propagate(e, MeasurementUncertainty(resistance_relative=0.002))
+    assert np.all(result.table["u(C_TS) from form factor [-]"] == 0)
+    assert result.inputs.form_factor > 0          # u(k) the runs give the fitted k
+    assert result.intercept_error == pytest.approx(prohaska_intercept_error(e))
+
+
+def test_first_order_u_of_a_fitted_k_matches_monte_carlo():
+    # JCGM 101:2008 Monte Carlo as the reference for the first-order u(k) and u(P_E): 20000
+    # seeded samples of the resistance readings, k re-fitted in each (within 5 %).
+    from similitude.prediction.chain import ChainInputs
+    from similitude.prediction.uncertainty import monte_carlo_si
+
+    e = extrapolate(_runs(), SHIP)
+    u = MeasurementUncertainty(resistance_relative=0.002, speed=0.001)
+    fo = propagate(e, u)
+
+    def outputs(r):
+        res = r["resistance"]
+        return {"k": np.asarray(res["k"], float).reshape(-1, 1), "pe": res["pe"]}
+
+    mc = monte_carlo_si(ChainInputs(e), u, outputs, samples=20000, seed=7)
+    assert fo.inputs.form_factor == pytest.approx(mc["k"]["std"][0], rel=0.05)
+    order = np.argsort(e.arrays["ship_speed"], kind="stable")
+    np.testing.assert_allclose(fo.table["u(P_E) combined [kW]"],
+                               mc["pe"]["std"][order] / 1e3, rtol=0.05)
 
 
 def test_user_values_with_units_and_percent():

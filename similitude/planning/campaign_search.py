@@ -83,7 +83,7 @@ class CandidateFacility:
         Model Reynolds number at the design speed and prototype/model ratio [-] at the
         largest model (NaN when not feasible).
     margins : tuple of (str, float)
-        The tightest checks at the largest model: (check, relative margin [-]).
+        The tightest hard limits at the largest model: (limit, relative margin [-]).
     """
 
     test: CampaignTest
@@ -207,7 +207,7 @@ def reynolds_figures(point: ScalePoint) -> tuple[float, float]:
 
 
 def key_margins(point: ScalePoint) -> tuple[tuple[str, float], ...]:
-    """The tightest checks of a model: (check, margin [-]), smallest margin first."""
+    """The tightest hard limits of a model: (limit, margin [-]), smallest margin first."""
     rows = [(c.name, c.margin) for c in point.checks if math.isfinite(c.margin)]
     rows.sort(key=lambda r: r[1])
     return tuple(rows[:KEY_MARGINS])

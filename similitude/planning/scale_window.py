@@ -53,8 +53,8 @@ from similitude.planning.candidates import (
     violations,
 )
 from similitude.planning.case import Case
-from similitude.planning.checks import facility_checks
 from similitude.planning.findings import Check
+from similitude.planning.limits import hard_limits
 from similitude.planning.solution import Solution
 from similitude.planning.solver import _roots_along
 from similitude.units import format_scale
@@ -92,7 +92,9 @@ class ScalePoint:
         Scale, velocity (and rotation) ratio, fluids and pressure of the model (None when
         only its admissibility was asked for).
     checks : tuple of Check
-        The facility checks of this model (:func:`similitude.planning.checks.facility_checks`).
+        The facility's hard limits at this model as checks (value, limit, margin, status;
+        :meth:`similitude.planning.limits.Limit.check`); the regime checks of a full plan
+        (:func:`similitude.planning.checks.facility_checks`) are left to the plan.
     admissible : bool
         Every hard limit holds.
     mismatch : float
@@ -529,7 +531,8 @@ def _point(prob: Problem, states, sweep: _Sweep, i: int, scale: float | None = N
                         or fac.pressure_range is not None else None),
         exact=tuple(prob.exact), binding="the scale window of the facility",
         objective=prob.case.request.objective, fluid_name=st.option.name, static_pressure=p)
-    return ScalePoint(sol, facility_checks(prob, c), admissible,
+    # every limit, a soft one over its value at a fixed scale as a warning (Limit.check)
+    return ScalePoint(sol, tuple(lim.check(0) for lim in hard_limits(prob, c)), admissible,
                       float(mismatch(prob, c)[0]), c, prob)
 
 

@@ -34,24 +34,21 @@ from similitude.readers.case_file import load_case
 DEMO = Path(__file__).parents[1] / "demo_cases"
 DEMOS = ("ferry_resistance", "offshore_seakeeping", "propeller_cavitation", "wing_wind_tunnel")
 
+#: The checks of a hull with its sizes given in a tank with its carriage data (both demo ships).
+HULL_IN_A_TANK = [
+    "Froude speed at the highest prototype speed", "Froude speed at the lowest prototype speed",
+    "model length vs facility maximum", "model length vs facility minimum",
+    "model length vs tank width (Kelvin wedge)", "blockage ratio A_X/(B_T h)",
+    "depth Froude number V_m/sqrt(g h)", "tank depth needed 3 sqrt(B_m T_m)",
+    "model Reynolds number at the lowest speed...",
+    "capillary share of the model's own waves at the lowest speed (lambda_c/lambda_w)^2",
+    "steady-run time at the highest speed"]
+
 #: The checks each demo case should have, by name (a name ending in "..." is a prefix).
 EXPECTED_DEMO_CHECKS = {
-    "ferry_resistance": [
-        "Froude speed at the highest prototype speed", "Froude speed at the lowest prototype speed",
-        "model length vs facility maximum", "model length vs facility minimum",
-        "model length vs tank width (Kelvin wedge)", "blockage ratio A_X/(B_T h)",
-        "depth Froude number V_m/sqrt(g h)", "tank depth needed 3 sqrt(B_m T_m)",
-        "model Reynolds number at the lowest speed...",
-        "capillary share of the model's own waves at the lowest speed (lambda_c/lambda_w)^2",
-        "steady-run time at the highest speed"],
+    "ferry_resistance": HULL_IN_A_TANK,
     "offshore_seakeeping": [
-        "Froude speed at the highest prototype speed", "Froude speed at the lowest prototype speed",
-        "model length vs facility maximum", "model length vs facility minimum",
-        "model length vs tank width (Kelvin wedge)", "blockage ratio A_X/(B_T h)",
-        "depth Froude number V_m/sqrt(g h)", "tank depth needed 3 sqrt(B_m T_m)",
-        "model Reynolds number at the lowest speed...",
-        "capillary share of the model's own waves at the lowest speed (lambda_c/lambda_w)^2",
-        "steady-run time at the highest speed",
+        *HULL_IN_A_TANK,
         *[f"{sea}: {what}" for sea in ("moderate sea", "rough sea") for what in (
             "model period vs wavemaker minimum", "model period vs wavemaker maximum",
             "most probable highest model wave", "model wave period",

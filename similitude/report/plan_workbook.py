@@ -320,10 +320,14 @@ def _overview_design_rows(ws, plan: Plan, r: int) -> int:
                   vp / case.speed_unit_factor, "0.00")
     r = label_row(ws, r, "design speed, model [m/s]", float(d["model speed [m/s]"]), "0.000")
     g = plan.groups
+    first = r
     for _, row in g[np.isclose(g["prototype speed [m/s]"], vp)].iterrows():
-        r = label_row(ws, r, f"{row['group']} ({row['symbol']}), model / prototype [-]",
+        # the name without its definition (the Similarity sheet gives it), wrapped if long
+        name = str(row["group"]).split(", ")[0]
+        r = label_row(ws, r, f"{name} ({row['symbol']}), model / prototype [-]",
                       f"{row['model value']:.4g} / {row['prototype value']:.4g}"
                       + ("" if row["matched"] else "  (not matched)"))
+    wrap_rows(ws, range(first, r), (1,))
     return r
 
 

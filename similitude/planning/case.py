@@ -94,6 +94,9 @@ def default_test(prototype_kind: str, facility_kind: str) -> str:
 
 #: How the speeds of a run matrix are given: prototype speeds, Froude numbers or model speeds.
 SPEED_BASES = ("prototype", "froude", "model")
+#: Orders of the runs within a group of one loading, wave and heading: ascending speed, or
+#: shuffled with a seed (speeds and repeats together).
+SPEED_ORDERS = ("ascending", "random")
 
 #: Kinds of wave condition: regular waves, or an irregular sea given by its spectrum.
 WAVE_KINDS = ("regular", "irregular")
@@ -446,6 +449,15 @@ class MatrixSpec:
         Number of repeats of each run (for repeatability/uncertainty).
     waiting_time : float or None
         Waiting time between runs [s]; None: the planner's estimate.
+    speed_order : str
+        One of :data:`SPEED_ORDERS`: the runs of a group (one loading, wave and heading) by
+        ascending speed, each repeat running the series again, or in a random order drawn
+        with ``seed``.
+    seed : int
+        Seed of the random order (the same seed gives the same order).
+    wave_calibration : bool
+        Measure each wave condition without the model before its first run (its time is
+        counted in the facility hours).
     """
 
     speeds: tuple[float, ...] = ()
@@ -456,6 +468,9 @@ class MatrixSpec:
     waves: tuple[WaveCondition, ...] = ()
     repeats: int = 1
     waiting_time: float | None = None
+    speed_order: str = "ascending"
+    seed: int = 1
+    wave_calibration: bool = True
 
     def __post_init__(self) -> None:
         try:
@@ -473,6 +488,12 @@ class MatrixSpec:
                              "one of " + ", ".join(SPEED_BASES))
         for i, v in enumerate(self.speeds):
             _at_least(f"matrix.speeds[{i}]", v, 0.0, "a finite speed >= 0")
+        if self.speed_order not in SPEED_ORDERS:
+            raise InputError(f"matrix.speed_order: {self.speed_order!r} is unknown; expected "
+                             "one of " + ", ".join(SPEED_ORDERS))
+        if isinstance(self.seed, bool) or not isinstance(self.seed, int) or self.seed < 0:
+            raise InputError(f"matrix.seed: {self.seed!r} is not valid; expected a whole "
+                             "number >= 0")
         for i, w in enumerate(self.waves):
             _check_wave(w, f"matrix.waves[{i}]")
 

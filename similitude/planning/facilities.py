@@ -53,6 +53,9 @@ class Facility:
         Largest propeller dynamometer rotation rate [1/s].
     min_model_length, max_model_length : float or None
         Limits on model size the facility imposes (carriage, dynamometer, support) [m].
+    loading_changeover : float or None
+        Time to change the model from one loading condition to the next [s] (re-ballasting,
+        checking draughts and trim, re-zeroing); None: the planner's common-practice default.
     min_steady_time : float or None
         Shortest steady-speed measuring time the facility requires per run [s]; when given,
         the steady-run length after acceleration and stopping becomes a hard limit of the
@@ -81,6 +84,7 @@ class Facility:
     min_model_length: float | None = None
     max_model_length: float | None = None
     min_steady_time: float | None = None
+    loading_changeover: float | None = None
     max_thrust: float | None = None
     max_torque: float | None = None
 
@@ -113,6 +117,10 @@ class Facility:
                                       and v > 0):
                 raise InputError(f"facility.{key}: {v!r} is not valid; expected a positive "
                                  "finite number or none")
+        v = self.loading_changeover
+        if v is not None and not (isinstance(v, (int, float)) and math.isfinite(v) and v >= 0):
+            raise InputError(f"facility.loading_changeover: {v!r} is not valid; expected a time "
+                             ">= 0 or none")
         if isinstance(self.fluids, str):
             raise InputError(f"facility.fluids: {self.fluids!r} is a string; expected a list "
                              "of fluid names")

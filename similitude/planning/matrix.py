@@ -1,9 +1,13 @@
 """The run matrix: every run the facility makes, with model and prototype values and timing.
 
-``build_matrix(case, solution)`` crosses speeds x loading conditions x headings x waves x
-repeats, scales each to the model with the solver's scale and speed ratio, and estimates the
-run time, run distance and waiting time of each run. ``facility_time_hours`` adds them up for
-booking the facility.
+``build_matrix(case, solution)`` crosses loading conditions x waves x headings x repeats x
+speeds, in the order the facility runs them: grouped by loading condition (a change of ballast
+takes time), then wave condition and heading, and within a group by ascending speed (each
+repeat running the series again) or in a random order drawn with a seed. It scales each run to
+the model with the solver's scale and speed ratio and estimates the run time, run distance and
+waiting time of each run, the time to change the loading before the first run of each new
+loading and to calibrate each wave condition without the model before its first run.
+``facility_time_hours`` adds them up for booking the facility.
 
 Timing model (towing tank, or wave basin with a moving model): the carriage accelerates at a,
 runs at constant model speed V and brakes at d, so the steady (measuring) distance is
@@ -18,7 +22,9 @@ procedure gives numbers): carriage acceleration and braking 0.5 m/s^2; waiting t
 water to calm between runs 15 min in a towing tank (20 min with waves), 10 min in a wave
 basin with absorbing beaches, 2 min in a tunnel for the flow to settle at a new point;
 regular waves 20 encounter cycles per station-keeping run; a tunnel dwell of 60 s per point;
-irregular seas 3 h full scale (offshore practice).
+irregular seas 3 h full scale (offshore practice); 1 h to change the loading condition
+(re-ballasting, checking draughts and trim, re-zeroing); a wave calibration records the whole
+irregular sea, or 20 regular-wave periods, without the model, then waits as between runs.
 
 References
 ----------
@@ -54,6 +60,7 @@ DEFAULT_WAITING_TIME = {
 DEFAULT_REGULAR_CYCLES = 20  # [-]
 DEFAULT_TUNNEL_DWELL = 60.0  # [s]
 DEFAULT_SEA_DURATION = 3.0 * 3600.0  # [s] full scale
+DEFAULT_LOADING_CHANGEOVER = 3600.0  # [s] per change of loading condition
 
 
 def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
@@ -70,13 +77,14 @@ def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
     Returns
     -------
     tuple
-        (columns, notes): the columns (header -> array, one row per run: speeds x loading x
-        headings x waves x repeats, in that nesting order, repeats innermost) carry units in
+        (columns, notes): the columns (header -> array, one row per run, in the order run:
+        loading, wave, heading, repeat, speed, see the module notes) carry units in
         brackets: run identification, prototype and model speeds, Froude and Reynolds numbers,
         loading and wave values at both scales, encounter counts, run time, run distance,
-        waiting time, the number of runs each row needs and its facility time; the notes list
-        the defaults assumed. :func:`facility_time_hours` takes the columns as they are (the
-        facility hours of a candidate model without building a table).
+        waiting time, the number of runs each row needs, the loading change and wave
+        calibration before it, and its facility time; the notes list the defaults assumed.
+        :func:`facility_time_hours` takes the columns as they are (the facility hours of a
+        candidate model without building a table).
 
     Raises
     ------
@@ -103,8 +111,8 @@ def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
     loads = list(spec.loading) or [None]
     heads = list(spec.headings) or [math.nan]
     wave_rows = _wave_table(case)
-    shape = (len(vp_s), len(loads), len(heads), len(wave_rows or [None]), int(spec.repeats))
-    i_s, i_l, i_h, i_w, i_r = np.indices(shape).reshape(5, -1)
+    i_l, i_w, i_h, i_r, i_s = _run_order(spec, vp_s, len(loads), len(heads),
+                                         len(wave_rows or [None]), notes)
     n = i_s.size
 
     cols: dict[str, object] = {}
@@ -135,7 +143,12 @@ def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
     wait = _waiting_time(case, bool(wave_rows), notes)
     cols["waiting time [s]"] = np.full(n, wait)
     cols["runs needed [-]"] = runs_needed
-    cols["facility time [s]"] = runs_needed * (t_run + t_overhead + wait)
+    changeover = _changeover_column(case, i_l, notes)
+    calibration = _calibration_column(case, wave_rows, i_w, scale, wait, notes)
+    cols["loading change before the run [s]"] = changeover
+    cols["wave calibration before the run [s]"] = calibration
+    cols["facility time [s]"] = runs_needed * (t_run + t_overhead + wait) + changeover + \
+        calibration
     return cols, notes
 
 
@@ -154,6 +167,71 @@ def build_matrix(case: Case, solution: Solution) -> pd.DataFrame:
     df.attrs["notes"] = tuple(notes)
     df.attrs["scale"] = float(solution.scale)
     return df
+
+
+def _run_order(spec, vp, n_load: int, n_head: int, n_wave: int, notes: list[str]):
+    """Indices (loading, wave, heading, repeat, speed) of each run, in the order run.
+
+    Runs are grouped by loading condition (a change of ballast takes time), then by wave
+    condition and heading; within a group the speeds run in ascending order, each repeat
+    running the series again, or in a random order of the group's runs drawn with the
+    case's seed.
+    """
+    by_speed = np.argsort(np.asarray(vp, dtype=float), kind="stable")
+    shape = (n_load, n_wave, n_head, int(spec.repeats), len(vp))
+    i_l, i_w, i_h, i_r, k = np.indices(shape).reshape(5, -1)
+    i_s = by_speed[k]
+    if spec.speed_order == "random":
+        group = len(vp) * int(spec.repeats)
+        rng = np.random.default_rng(spec.seed)
+        order = np.concatenate([g * group + rng.permutation(group)
+                                for g in range(i_s.size // group)])
+        i_r, i_s = i_r[order], i_s[order]
+        notes.append(f"runs of each loading, wave and heading in a random order (seed "
+                     f"{spec.seed})")
+    return i_l, i_w, i_h, i_r, i_s
+
+
+def _changeover_column(case: Case, i_l, notes: list[str]):
+    """Time [s] to change the loading condition before each run (zero but at a change)."""
+    out = np.zeros(i_l.size)
+    change = np.flatnonzero(np.diff(i_l) != 0) + 1
+    if change.size == 0:
+        return out
+    fac = case.facility
+    t = fac.loading_changeover
+    if t is None:
+        t = DEFAULT_LOADING_CHANGEOVER
+        # the default is from memory; the client-facing note says common practice
+        notes.append(f"loading changeover {t / 3600:g} h per change of loading condition "
+                     "(common practice: re-ballasting, checking draughts and trim, "
+                     "re-zeroing the instruments; facility key loading_changeover)")
+    out[change] = t
+    return out
+
+
+def _calibration_column(case: Case, wave_rows: list[dict], i_w, scale: float, wait: float,
+                        notes: list[str]):
+    """Time [s] to calibrate a wave condition without the model, before its first run.
+
+    Irregular seas: the whole model-scale realisation; regular waves:
+    :data:`DEFAULT_REGULAR_CYCLES` periods; each followed by the waiting time.
+    """
+    out = np.zeros(i_w.size)
+    if not wave_rows or not case.matrix.wave_calibration:
+        return out
+    sqrt_l = math.sqrt(scale)
+    for w, row in enumerate(wave_rows):
+        first = np.flatnonzero(i_w == w)
+        if first.size == 0:
+            continue
+        record = (row["duration"] / sqrt_l if row["kind"] == "irregular"
+                  else DEFAULT_REGULAR_CYCLES * row["period"] / sqrt_l)
+        out[first[0]] = record + wait
+    notes.append("each wave condition calibrated once without the model before its first run "
+                 "(the whole irregular sea, or 20 regular-wave periods, then the waiting time; "
+                 "common practice, ITTC 7.5-02-07-02.1)")
+    return out
 
 
 def _speeds(case: Case, solution: Solution):
@@ -430,7 +508,8 @@ def runs_text(matrix) -> str:
 
 
 def facility_time_hours(matrix) -> float:
-    """Total facility time [h] of a run matrix: runs x (run, acceleration, braking, waiting).
+    """Total facility time [h] of a run matrix: runs x (run, acceleration, braking, waiting),
+    the loading changes and the wave calibrations.
 
     Parameters
     ----------
@@ -440,7 +519,7 @@ def facility_time_hours(matrix) -> float:
     Returns
     -------
     float
-        Hours of facility time (excluding set-up, calibration and model changes).
+        Hours of facility time (excluding the set-up before the first run).
     """
     if "facility time [s]" in matrix:
         return float(matrix["facility time [s]"].sum()) / 3600.0

@@ -45,6 +45,7 @@ from similitude.planning.case import (
     OBJECTIVES,
     PROTOTYPE_KINDS,
     SPEED_BASES,
+    SPEED_ORDERS,
     TEST_FACILITIES,
     TEST_KINDS,
     WAVE_KINDS,
@@ -135,11 +136,11 @@ FACILITY_KEYS = ("file", "kind", "name", "length", "width", "depth", "height", "
                  "fluids", "temperature_limits", "pressure_limits", "acceleration", "braking",
                  "open_jet", "wave_periods", "highest_wave", "fastest_rotation",
                  "shortest_model", "longest_model", "shortest_steady_time", "largest_thrust",
-                 "largest_torque")
+                 "largest_torque", "loading_changeover")
 MATCHING_KEYS = ("exact", "report", "scale", "model_length", "choose", "friction_line",
                  "form_factor", "model_fluid", "round_scale", "relax")
 RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_between_runs",
-             "loading", "waves")
+             "order", "seed", "wave_calibration", "loading", "waves")
 LOADING_KEYS = ("name", "draught", "trim", "displacement", *MASS_PROPERTY_KEYS)
 WAVE_KEYS = ("name", "kind", "period", "length_ratio", "height", "steepness",
              "significant_height", "peak_period", "spectrum", "gamma", "duration")
@@ -292,6 +293,8 @@ def _read_facility_table(r: FieldReader, data: Any, path: str = "facility") -> F
     steady = r.field(t, "shortest_steady_time", path, TIME, (0.0, 3600.0))
     max_thrust = r.field(t, "largest_thrust", path, FORCE, _LIMITS["dynamometer_force"])
     max_torque = r.field(t, "largest_torque", path, TORQUE, _LIMITS["dynamometer_torque"])
+    changeover = r.field(t, "loading_changeover", path, TIME, _LIMITS["waiting"],
+                         strict_low=False)
     if shortest is not None and longest is not None and shortest > longest:
         r.problem(key_path(path, "shortest_model"), "longer than longest_model; expected "
                   "shortest_model <= longest_model")
@@ -312,7 +315,8 @@ def _read_facility_table(r: FieldReader, data: Any, path: str = "facility") -> F
                         wavemaker_period_range=periods, wavemaker_max_height=highest,
                         max_rotation_rate=fastest, min_model_length=shortest,
                         max_model_length=longest, min_steady_time=steady,
-                        max_thrust=max_thrust, max_torque=max_torque, **kw)
+                        max_thrust=max_thrust, max_torque=max_torque,
+                        loading_changeover=changeover, **kw)
     except InputError as exc:
         r.problems.extend(exc.problems)
         return None
@@ -487,6 +491,9 @@ def _read_runs(r: FieldReader, data: Any) -> MatrixSpec | None:
     wait = r.field(t, "wait_between_runs", path, TIME, _LIMITS["waiting"], strict_low=False)
     if wait is not None:
         kw["waiting_time"] = wait
+    kw["speed_order"] = r.choice(t, "order", path, SPEED_ORDERS, "ascending") or "ascending"
+    kw["seed"] = r.integer(t, "seed", path, 0, 2**32 - 1, 1)
+    kw["wave_calibration"] = r.flag(t, "wave_calibration", path, True)
     ok = True
     for key, reader in (("loading", _read_loading), ("waves", _read_wave)):
         if key not in t:

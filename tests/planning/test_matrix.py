@@ -265,3 +265,113 @@ def test_run_count_gives_conditions_and_runs_needed_apart():
     assert runs_needed(m) == 9
     assert runs_text(m) == "3 conditions (run-matrix rows), 9 runs needed"
     assert runs_text(pd.DataFrame({"runs needed [-]": [1, 1]})) == "2 runs (one per condition)"
+
+
+# -- run order, loading changes, wave calibration -----------------------------------------------
+def _loaded(**kw):
+    spec = dict(speeds=(9.0, 5.0, 7.0), repeats=2,
+                loading=(LoadingCondition("full"), LoadingCondition("ballast"),
+                         LoadingCondition("light")), waiting_time=600.0)
+    spec.update(kw)
+    return MatrixSpec(**spec)
+
+
+def test_runs_are_grouped_by_loading_so_the_ballast_changes_once_per_condition():
+    m = build_matrix(_case(_loaded()), _solution())
+    loads = m["loading"].tolist()
+    changes = sum(a != b for a, b in zip(loads, loads[1:], strict=False))
+    assert changes == 2  # three loading conditions, each run as one block
+    assert loads[:6] == ["full"] * 6
+
+
+def test_within_a_group_speeds_ascend_and_each_repeat_runs_the_series_again():
+    m = build_matrix(_case(_loaded()), _solution())
+    first = m[m["loading"] == "full"]
+    assert first["prototype speed [m/s]"].tolist() == [5.0, 7.0, 9.0, 5.0, 7.0, 9.0]
+    assert first["repeat"].tolist() == [1, 1, 1, 2, 2, 2]
+    # the speed index still names the speed as listed in the case (9, 5, 7 kn order)
+    assert first["speed index"].tolist()[:3] == [2, 3, 1]
+
+
+def test_waves_group_inside_a_loading_and_headings_inside_a_wave():
+    spec = MatrixSpec(speeds=(5.0,), headings=(180.0, 90.0),
+                      loading=(LoadingCondition("full"), LoadingCondition("ballast")),
+                      waves=(WaveCondition("regular", period=8.0, height=2.0, name="A"),
+                             WaveCondition("regular", period=10.0, height=2.0, name="B")))
+    m = build_matrix(_case(spec), _solution())
+    assert list(zip(m["loading"], m["wave"], m["heading [deg]"], strict=True)) == [
+        ("full", "A", 180.0), ("full", "A", 90.0), ("full", "B", 180.0), ("full", "B", 90.0),
+        ("ballast", "A", 180.0), ("ballast", "A", 90.0), ("ballast", "B", 180.0),
+        ("ballast", "B", 90.0)]
+
+
+def test_a_random_order_shuffles_only_within_each_group_and_repeats_with_its_seed():
+    a = build_matrix(_case(_loaded(speed_order="random", seed=7)), _solution())
+    b = build_matrix(_case(_loaded(speed_order="random", seed=7)), _solution())
+    c = build_matrix(_case(_loaded(speed_order="random", seed=8)), _solution())
+    speeds = a["prototype speed [m/s]"].tolist()
+    assert speeds == b["prototype speed [m/s]"].tolist()
+    assert speeds != c["prototype speed [m/s]"].tolist()
+    assert a["loading"].tolist() == build_matrix(_case(_loaded()), _solution())[
+        "loading"].tolist()
+    for _, g in a.groupby("loading"):  # every speed and repeat once per group
+        assert sorted(zip(g["prototype speed [m/s]"], g["repeat"], strict=True)) == sorted(
+            (v, r) for v in (5.0, 7.0, 9.0) for r in (1, 2))
+    assert any("random order (seed 7)" in n for n in a.attrs["notes"])
+
+
+def test_each_change_of_loading_adds_the_changeover_to_the_facility_hours():
+    # hand count: 3 loadings -> 2 changes at the common-practice 1 h each
+    m = build_matrix(_case(_loaded()), _solution())
+    v = m["model speed [m/s]"]
+    runs = (m["run time [s]"] + v / 0.5 + v / 1.0 + 600.0).sum()
+    assert facility_time_hours(m) == pytest.approx((runs + 2 * 3600.0) / 3600.0)
+    assert m["loading change before the run [s]"].tolist()[6] == 3600.0
+    assert any("loading changeover 1 h" in n and "common practice" in n
+               for n in m.attrs["notes"])
+
+
+def test_the_facility_changeover_time_replaces_the_default():
+    fac = Facility("towing_tank", "test tank", 200.0, 7.0, 4.0, (0.1, 8.0),
+                   acceleration=0.5, deceleration=1.0, loading_changeover=1800.0)
+    m = build_matrix(_case(_loaded(), fac), _solution())
+    assert m["loading change before the run [s]"].sum() == 2 * 1800.0
+
+
+def test_one_loading_condition_needs_no_changeover():
+    m = build_matrix(_case(_loaded(loading=(LoadingCondition("full"),))), _solution())
+    assert (m["loading change before the run [s]"] == 0).all()
+
+
+def test_each_wave_condition_is_calibrated_once_without_the_model_in_the_hours():
+    # irregular sea: the whole model realisation D_p/sqrt(lambda) = 10800/5 s, then the wait;
+    # regular wave: 20 periods of T_p/sqrt(lambda) = 8/5 s, then the wait
+    spec = MatrixSpec(speeds=(5.0, 7.0), waiting_time=600.0,
+                      loading=(LoadingCondition("full"), LoadingCondition("ballast")),
+                      waves=(WaveCondition("irregular", significant_height=3.0,
+                                           peak_period=10.0, duration=10800.0),
+                             WaveCondition("regular", period=8.0, height=2.0)))
+    m = build_matrix(_case(spec), _solution())
+    cal = m["wave calibration before the run [s]"]
+    assert sorted(cal[cal > 0].tolist()) == pytest.approx([20 * 8.0 / 5 + 600.0,
+                                                          10800.0 / 5 + 600.0])
+    assert cal.iloc[0] == pytest.approx(10800.0 / 5 + 600.0)  # before the first run in it
+    total = (m["runs needed [-]"] * (m["run time [s]"] + m["model speed [m/s]"] / 0.5
+                                     + m["model speed [m/s]"] / 1.0 + 600.0)).sum()
+    assert facility_time_hours(m) * 3600.0 == pytest.approx(total + cal.sum() + 3600.0)
+
+
+def test_wave_calibration_can_be_left_out():
+    spec = MatrixSpec(speeds=(5.0,), wave_calibration=False,
+                      waves=(WaveCondition("regular", period=8.0, height=2.0),))
+    m = build_matrix(_case(spec), _solution())
+    assert (m["wave calibration before the run [s]"] == 0).all()
+
+
+@pytest.mark.parametrize("kw, field", [({"speed_order": "sorted"}, "speed_order"),
+                                       ({"seed": -1}, "seed")])
+def test_a_bad_order_or_seed_is_an_input_error_naming_the_field(kw, field):
+    from similitude.errors import InputError
+
+    with pytest.raises(InputError, match=field):
+        MatrixSpec(**kw)

@@ -170,6 +170,23 @@ def test_a_mass_property_without_a_unit_is_refused_naming_the_key(tmp_path):
         load_case(tmp_path / "case.toml")
 
 
+def test_run_order_seed_calibration_and_changeover_keys_are_read(tmp_path):
+    (tmp_path / "tank.toml").write_text(_facility_toml() + 'loading_changeover = "45 min"\n')
+    (tmp_path / "case.toml").write_text(_case_toml(extra=(
+        '[runs]\norder = "random"\nseed = 42\nwave_calibration = false\n')))
+    case = load_case(tmp_path / "case.toml")
+    assert (case.matrix.speed_order, case.matrix.seed) == ("random", 42)
+    assert case.matrix.wave_calibration is False
+    assert case.facility.loading_changeover == 2700.0  # 45 min = 2700 s
+
+
+def test_an_unknown_run_order_is_refused_with_the_orders_known(tmp_path):
+    (tmp_path / "tank.toml").write_text(_facility_toml())
+    (tmp_path / "case.toml").write_text(_case_toml(extra='[runs]\norder = "fastest"\n'))
+    with pytest.raises(InputError, match=r"runs\.order: 'fastest'.*ascending, random"):
+        load_case(tmp_path / "case.toml")
+
+
 def test_facility_file_is_read_relative_to_the_case_file(tmp_path):
     (tmp_path / "facilities").mkdir()
     (tmp_path / "facilities" / "tank.toml").write_text(_facility_toml())

@@ -288,7 +288,7 @@ def run(args) -> int:
         written = write_results(args.output, prediction.extrapolation,
                                 uncertainty=prediction.uncertainty,
                                 open_water=prediction.open_water, overwrite=args.force,
-                                paper=args.paper)
+                                paper=args.paper, prediction=prediction)
     if args.json:
         data = prediction.to_dict()
         if written is not None:

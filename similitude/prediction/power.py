@@ -150,16 +150,21 @@ SPEED_POWER_COLUMNS = ("ship speed [kn]", "P_E [kW]", "P_D [kW]", "P_S [kW]", "P
                        "rate of revolution [rpm]")
 
 
-def power_result(arrays: dict[str, np.ndarray], eta_r, curve: OpenWaterCurve,
-                 setup: PropulsionSetup) -> PowerPrediction:
-    """Tables, contract-speed figures and notes of a one-sample :func:`power_si`."""
+def power_result(arrays: dict[str, np.ndarray], points: dict[str, np.ndarray],
+                 curve: OpenWaterCurve, setup: PropulsionSetup) -> PowerPrediction:
+    """Tables, contract-speed figures and notes of a one-sample :func:`power_si` (``points``:
+    the self-propulsion points it was computed from)."""
     import pandas as pd  # lazy: the command line builds its parsers without pandas
 
     a = {key: np.asarray(v)[0] if np.ndim(v) == 2 else v for key, v in arrays.items()}
+    pt = {key: np.asarray(points[key])[0] for key in ("wake", "thrust_deduction", "cfm",
+                                                       "eta_r")}
     p = setup.propulsion
     order = np.argsort(a["ship_speed"], kind="stable")
     table = pd.DataFrame({
         "ship speed [kn]": a["ship_speed"] / KNOT, "ship speed [m/s]": a["ship_speed"],
+        "model wake w_TM [-]": pt["wake"], "thrust deduction t [-]": pt["thrust_deduction"],
+        "C_FM [-]": pt["cfm"], "C_FS [-]": a["cfs"], "roughness allowance dC_F [-]": a["dcf"],
         "C_TS [-]": a["cts"], "P_E [kW]": a["pe"] / 1e3,
         "full-scale wake w_TS [-]": a["wake_ship"], "loading K_T/J^2 [-]": a["loading"],
         "advance ratio J_TS [-]": a["advance_ratio"], "K_TS [-]": a["kt"],
@@ -167,7 +172,7 @@ def power_result(arrays: dict[str, np.ndarray], eta_r, curve: OpenWaterCurve,
         "rate of revolution n_S [rpm]": a["rate"] * 60.0, "P_DS [kW]": a["power"] / 1e3,
         "thrust per propeller [kN]": a["thrust"] / 1e3,
         "torque per propeller [kN m]": a["torque"] / 1e3, "eta_0 [-]": a["eta_0"],
-        "eta_H [-]": a["eta_h"], "eta_R [-]": np.asarray(eta_r).reshape(-1),
+        "eta_H [-]": a["eta_h"], "eta_R [-]": pt["eta_r"],
         "eta_D [-]": a["eta_d"], "trial rate n_T [rpm]": a["trial_rate"] * 60.0,
         "trial P_DT [kW]": a["trial_power"] / 1e3, "P_S [kW]": a["shaft_power"] / 1e3,
         "P_B [kW]": a["brake_power"] / 1e3,
@@ -180,7 +185,7 @@ def power_result(arrays: dict[str, np.ndarray], eta_r, curve: OpenWaterCurve,
         notes.append("Some points load the propeller beyond its open-water curve's range: "
                      "their n and P_D are not reliable (shown as NaN).")
         bad = ~a["on_curve"][order]
-        for col in table.columns[5:]:
+        for col in table.columns[list(table.columns).index("full-scale wake w_TS [-]"):]:
             table.loc[bad, col] = np.nan
         speed_power.loc[bad, list(SPEED_POWER_COLUMNS[2:])] = np.nan
     contract = None

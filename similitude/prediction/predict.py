@@ -197,7 +197,8 @@ class Prediction:
         from similitude.report.results_workbook import write_results
 
         return write_results(path, self.extrapolation, uncertainty=self.uncertainty,
-                             open_water=self.open_water, overwrite=overwrite, paper=paper)
+                             open_water=self.open_water, overwrite=overwrite, paper=paper,
+                             prediction=self)
 
 
 def predict(runs: ResistanceRuns, ship: ShipParticulars,
@@ -302,7 +303,7 @@ def predict(runs: ResistanceRuns, ship: ShipParticulars,
     test_curve, ship_curve = result["curves"]
     analysis = analysis_result(self_propulsion_runs, result["analysis"], test_curve,
                                chain.setup)
-    power = power_result(result["power"], result["analysis"]["points"]["eta_r"], ship_curve,
+    power = power_result(result["power"], result["analysis"]["points"], ship_curve,
                          chain.setup)
     spread = None if uncertainty is None else propulsion_uncertainty(
         chain, uncertainty, monte_carlo, seed)

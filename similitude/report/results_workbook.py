@@ -1,10 +1,12 @@
 """Workbook of an extrapolation to full scale: inputs, every correction step, results, charts.
 
-Sheets: ``Read me`` (method, revision, cautions), ``Inputs`` (ship, options, measured runs),
-``Tank corrections`` (stimulator drag, blockage, temperature correction), ``Form factor``
-(Prohaska's fit and residuals), ``Model scale`` (C_TM, C_FM, C_R), ``Full scale`` (allowances,
-C_TS, R_TS, P_E), ``Results``, ``Uncertainty`` and ``Open water`` when given, and ``Charts``
-(C_T and C_F against Froude number; P_E against ship speed; K_T, K_Q, η_0 against J).
+Sheets: ``Read me`` (method, revision, cautions, the contract-speed figures), ``Inputs``
+(ship, options, measured runs), ``Tank corrections`` (stimulator drag, blockage, temperature
+correction), ``Form factor`` (Prohaska's fit and residuals), ``Model scale`` (C_TM, C_FM,
+C_R), ``Full scale`` (allowances, C_TS, R_TS, P_E), ``Results``, ``Uncertainty`` and ``Open
+water`` when given, the self-propulsion sheets of a self-propulsion test
+(:mod:`similitude.report.propulsion_sheets`), and ``Charts`` (C_T and C_F against Froude
+number; P_E against ship speed; K_T, K_Q, η_0 against J).
 
 The file is written atomically and never overwrites an existing file unless asked
 (:mod:`similitude.report.atomic`).
@@ -29,6 +31,7 @@ from similitude.cautions import PREDICTION_CAUTIONS
 from similitude.constants import KNOT
 from similitude.report.atomic import OutputSet, check_target, signals_cleanup
 from similitude.report.page import PageSetup
+from similitude.report.propulsion_sheets import add_propulsion_sheets
 from similitude.report.sheets import (
     BOLD,
     TITLE_FONT,
@@ -36,9 +39,8 @@ from similitude.report.sheets import (
     add_series,
     audit_formulas,
     chart_below,
-    fit_pairs,
+    finish_table,
     fit_row_height,
-    fit_widths,
     print_setup,
     save_workbook,
     scatter_chart,
@@ -52,7 +54,8 @@ from similitude.report.sheets import (
 TEXT_WIDTH = 90
 
 
-def build_workbook(extrapolation, uncertainty=None, open_water=None, paper: str = "A4"):
+def build_workbook(extrapolation, uncertainty=None, open_water=None, paper: str = "A4",
+                   prediction=None):
     """Build the openpyxl Workbook (not saved).
 
     Parameters
@@ -62,16 +65,22 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None, paper: str 
     open_water : similitude.prediction.open_water.OpenWaterScaling, optional
     paper : str
         Paper size of the page setup: ``"A4"`` (default) or ``"letter"``.
+    prediction : similitude.prediction.predict.Prediction, optional
+        With a self-propulsion test: its sheets are added
+        (:mod:`similitude.report.propulsion_sheets`) and the Read me gives the contract-speed
+        figures.
 
     Returns
     -------
     openpyxl.Workbook
     """
     e = extrapolation
-    page = PageSetup(title=f"Full-scale extrapolation: {e.ship.name}", paper=paper)
+    propulsion = prediction if prediction is not None and prediction.power is not None else None
+    page = PageSetup(title=f"Full-scale {'prediction' if propulsion else 'extrapolation'}: "
+                     f"{e.ship.name}", paper=paper)
     wb = SafeWorkbook()
     titles = {}
-    _readme_sheet(wb.active, e)
+    _readme_sheet(wb.active, e, propulsion)
     titles["Inputs"] = _inputs_sheet(wb.create_sheet("Inputs"), e)
     titles["Tank corrections"] = _table_sheet(wb.create_sheet("Tank corrections"),
                                               _tank_frame(e), _tank_formulas(e))
@@ -85,6 +94,8 @@ def build_workbook(extrapolation, uncertainty=None, open_water=None, paper: str 
         titles["Uncertainty"] = _uncertainty_sheet(wb.create_sheet("Uncertainty"), uncertainty)
     if open_water is not None:
         titles["Open water"] = _open_water_sheet(wb.create_sheet("Open water"), open_water)
+    if propulsion is not None:
+        titles.update(add_propulsion_sheets(wb, propulsion, wb.create_sheet))
     titles["Charts"] = _charts_sheet(wb.create_sheet("Charts"), e)
     for ws in wb.worksheets:
         print_setup(ws, page, titles.get(ws.title), "A:A")
@@ -98,37 +109,60 @@ def _table_sheet(ws, frame, formulas=None, row: int = 1) -> int:
     if formulas is not None:
         audit_formulas(ws, list(frame.columns), first, last, *formulas)
     ws.freeze_panes = ws.cell(row=first, column=2)
-    _finish(ws, row, last)
+    finish_table(ws, row, last)
     return row
 
 
-def _finish(ws, header: int, last: int, pairs: tuple[int, int] | None = None) -> None:
-    """Column widths from the table (header row ``header`` to ``last``), its header row as
-    high as its wrapped text, and the label-value rows ``pairs`` (first, last) above it
-    fitted around the table's columns."""
-    fit_widths(ws, rows=range(header, last + 1))
-    fit_row_height(ws, header)
-    if pairs is not None:
-        fit_pairs(ws, *pairs, ws.max_column)
-
-
-def _readme_sheet(ws, e) -> None:
-    """Method, revision, the data's source (labelled when synthetic), cautions and notes."""
+def _readme_sheet(ws, e, propulsion=None) -> None:
+    """Method, revision, the data's source (labelled when synthetic), the contract-speed
+    figures of a self-propulsion prediction, cautions and notes."""
     ws.title = "Read me"
-    ws.cell(row=1, column=1, value="Full-scale extrapolation of measured model resistance"
-            ).font = TITLE_FONT
-    source = e.runs.source or "(built in Python)"
-    synthetic = "synthetic" in source.lower()
-    pairs = [("ship", e.ship.name), ("measured data", source),
+    ws.cell(row=1, column=1, value="Full-scale prediction from model tests" if propulsion
+            else "Full-scale extrapolation of measured model resistance").font = TITLE_FONT
+    sources = [e.runs.source or "(built in Python)"]
+    if propulsion is not None:
+        sources.append(propulsion.self_propulsion.runs.source or "(built in Python)")
+    synthetic = any("synthetic" in s.lower() for s in sources)
+    pairs = [("ship", e.ship.name), ("measured data", ", ".join(sources)),
              ("method", e.options.revision_note), ("form factor k [-]", e.form_factor)]
+    if propulsion is not None:
+        pairs += _propulsion_summary(propulsion)
     if synthetic:
         pairs.append(("DATA", "SYNTHETIC: invented 'virtual tank' data, not a real test"))
     row = write_pairs(ws, pairs, 3, "Summary")
     row = write_pairs(ws, [(f"{i + 1}.", text) for i, text in enumerate(PREDICTION_CAUTIONS)],
                       row, "Cautions")
-    last = write_pairs(ws, [(f"note {i + 1}", n) for i, n in enumerate(e.notes)], row, "Notes")
+    notes = list(e.notes)
+    if propulsion is not None:
+        notes += [*propulsion.plan_notes, *propulsion.self_propulsion.notes,
+                  *propulsion.power.notes]
+    last = write_pairs(ws, [(f"note {i + 1}", n) for i, n in enumerate(notes)], row, "Notes")
     set_widths(ws, {"A": 24, "B": TEXT_WIDTH})
     wrap_rows(ws, range(4, last), (2,))
+
+
+def _propulsion_summary(p) -> list[tuple[str, object]]:
+    """The Read me's self-propulsion lines: method and the contract-speed figures, with the
+    uncertainty of P_D and n_S there and the method that gave it."""
+    out = [("propulsion method", p.self_propulsion.options.statement)]
+    c = p.power.contract
+    if c is None:
+        return out
+    out += [("contract speed [kn]", c["ship speed [kn]"]),
+            ("  P_D, delivered [kW]", c["P_D [kW]"]),
+            ("  P_B, brake [kW]", c["P_B [kW]"]),
+            ("  n, rate [rpm]", c["rate of revolution [rpm]"]),
+            ("  P_E, effective [kW]", c["P_E [kW]"])]
+    pu = p.propulsion_uncertainty
+    if pu is not None:
+        t = pu.table
+        i = int((t["ship speed [kn]"] - c["ship speed [kn]"]).abs().idxmin())
+        which = "Monte Carlo" if pu.samples else "first order"
+        col = "u(P_DS) Monte Carlo [kW]" if pu.samples else "u(P_DS) first order [kW]"
+        out.append(("  u(P_D) [kW]",
+                    f"{t[col].iloc[i]:.4g} at {t['ship speed [kn]'].iloc[i]:.2f} kn ({which}; "
+                    "standard, k = 1; see the Propulsion uncertainty sheet)"))
+    return out
 
 
 def _inputs_sheet(ws, e) -> int:
@@ -167,7 +201,7 @@ def _inputs_sheet(ws, e) -> int:
     ], row, "Options")
     ws.cell(row=row, column=1, value="Measured runs").font = TITLE_FONT
     _, last = write_frame(ws, e.runs.to_frame(), row + 1)
-    _finish(ws, row + 1, last, (1, row - 1))
+    finish_table(ws, row + 1, last, (1, row - 1))
     return row + 1
 
 
@@ -212,7 +246,7 @@ def _form_factor_sheet(ws, e) -> int:
             ).font = TITLE_FONT
     pro = e.prohaska_frame()
     first, last = write_frame(ws, pro, row + 1)
-    _finish(ws, row + 1, last, (1, row - 1))
+    finish_table(ws, row + 1, last, (1, row - 1))
     fit = e.form_factor_fit
     if fit is None:
         return row + 1
@@ -254,9 +288,11 @@ def _uncertainty_sheet(ws, uncertainty) -> int:
         ("u(resistance), relative [%]", 100 * u.resistance_relative),
         ("u(water temperature) [K]", u.temperature),
         ("u(form factor k) [-]", u.form_factor),
+        ("standard error of Prohaska's intercept [-] (a check, not an input)",
+         uncertainty.intercept_error),
     ], 1, "Standard uncertainties of the inputs")
     _, last = write_frame(ws, uncertainty.table, row)
-    _finish(ws, row, last, (1, row - 1))
+    finish_table(ws, row, last, (1, row - 1))
     return row
 
 
@@ -274,7 +310,7 @@ def _open_water_sheet(ws, open_water) -> int:
     ow = ow.assign(**{"10 K_Q model [-]": 10 * ow["K_Q model [-]"],
                       "10 K_Q ship [-]": 10 * ow["K_Q ship [-]"]})
     first, last = write_frame(ws, ow, row)
-    _finish(ws, row, last, (1, row - 1))
+    finish_table(ws, row, last, (1, row - 1))
     heads = list(ow.columns)
     col = {h: heads.index(h) + 1 for h in heads}
     ch = scatter_chart("Open water: model (points) and ship (lines)", "J [-]",
@@ -306,7 +342,7 @@ def _charts_sheet(ws, e) -> int:
         "P_E [kW]": a["pe"][order] / 1e3,
     })
     first, last = write_frame(ws, chart_data, 1, 1)
-    _finish(ws, 1, last)
+    finish_table(ws, 1, last)
     ch = scatter_chart("Resistance coefficients against Froude number", "Froude number [-]",
                        "coefficient [-]")
     add_series(ch, ws, 1, 2, first, last, 1, points=True)
@@ -322,7 +358,7 @@ def _charts_sheet(ws, e) -> int:
 
 def write_results(path, extrapolation, uncertainty=None, open_water=None,
                   overwrite: bool = False, paper: str = "A4",
-                  outputs: OutputSet | None = None) -> Path:
+                  outputs: OutputSet | None = None, prediction=None) -> Path:
     """Write the results workbook atomically.
 
     Parameters
@@ -340,6 +376,8 @@ def write_results(path, extrapolation, uncertainty=None, open_water=None,
     outputs : similitude.report.atomic.OutputSet, optional
         Write the workbook as one file of this set (published with the others, or not at
         all); ``overwrite`` is then the set's.
+    prediction : similitude.prediction.predict.Prediction, optional
+        The whole prediction: with a self-propulsion test, its sheets are added.
 
     Returns
     -------
@@ -348,7 +386,7 @@ def write_results(path, extrapolation, uncertainty=None, open_water=None,
     if outputs is not None:
         overwrite = outputs.overwrite
     target = check_target(path, overwrite)  # fail before the work
-    wb = build_workbook(extrapolation, uncertainty, open_water, paper)
+    wb = build_workbook(extrapolation, uncertainty, open_water, paper, prediction)
     if outputs is not None:
         return outputs.add(target, lambda p: save_workbook(wb, p))
     with signals_cleanup(), OutputSet(overwrite) as out:

@@ -741,6 +741,16 @@ def fit_pairs(ws, first: int, last: int, last_column: int) -> None:
             ws.row_dimensions[r].height = lines * LINE_HEIGHT
 
 
+def finish_table(ws, header: int, last: int, pairs: tuple[int, int] | None = None) -> None:
+    """Column widths from a table (header row ``header`` to ``last``), its header row as high
+    as its wrapped text, and the label-value rows ``pairs`` (first, last) above it fitted
+    around the table's columns."""
+    fit_widths(ws, rows=range(header, last + 1))
+    fit_row_height(ws, header)
+    if pairs is not None and pairs[1] >= pairs[0]:
+        fit_pairs(ws, *pairs, ws.max_column)
+
+
 def audit_formulas(ws, columns: Sequence[str], first: int, last: int,
                    formulas: Sequence[tuple[str, str]],
                    constants: Sequence[tuple[str, float]]) -> None:

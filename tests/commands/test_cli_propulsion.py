@@ -158,3 +158,16 @@ def test_rows_without_ids_are_never_compared_with_planned_runs(tmp_path, capsys)
     assert main(["extrapolate", str(p), "--case", str(RES_CASE), "--form-factor", "0.18",
                  "--json"]) == 0
     assert json.loads(capsys.readouterr().out)["plan_notes"] == []
+
+
+def test_one_command_writes_one_workbook_with_every_step(tmp_path, capsys):
+    from openpyxl import load_workbook
+
+    out = tmp_path / "power.xlsx"
+    assert main([*BASE, "-o", str(out)]) == 0
+    names = load_workbook(out).sheetnames
+    for sheet in ("Read me", "Inputs", "Form factor", "Full scale", "Open water",
+                  "Self-propulsion", "Propulsion factors", "Full-scale prediction",
+                  "Speed-power-rpm", "Charts"):
+        assert sheet in names
+    assert f"wrote {out}" in capsys.readouterr().out

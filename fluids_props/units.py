@@ -66,10 +66,54 @@ SI_UNITS: dict[str, str] = {
 _NUMBER_UNIT = re.compile(
     r"^\s*(?P<num>[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(?P<unit>.*?)\s*$"
 )
+#: Longest quantity text read [characters]: pint's parser slows down with the square of the
+#: length, and "15 degC" or "1.1e-6 m^2/s" need a few characters.
+QUANTITY_TEXT_LIMIT = 100
+#: Longest echo of a user value in a message [characters].
+SHOWN_LIMIT = 60
+_EXPONENT_OPERATOR = re.compile(r"\*\*|\^")
+_PLAIN_EXPONENT = re.compile(r"\s*[-+]?\d{1,2}(?:\.\d{1,3})?(?![\d.])")
+#: Symbols pint does not read, with what to write instead (for the message).
+_SYMBOL_HINTS = {"\u2103": "degC", "\u2109": "degF", "\u00ba": "deg", "\u212a": "K",
+                 "\u2126": "ohm"}
+_EXAMPLE_TEXT = "expected a number and a unit such as '15 degC' or '2 bar'"
 
 
 class UnitInputError(ValueError):
     """A value could not be read as a quantity of the expected dimension."""
+
+
+def shown(value, limit: int = SHOWN_LIMIT) -> str:
+    """``repr(value)`` for a message, shortened to about ``limit`` characters.
+
+    A long text keeps its start and says how long it was, so a 100,000-character value never
+    fills a terminal.
+    """
+    if isinstance(value, str) and len(value) > limit:
+        return repr(value[:limit - 10]) + f"... ({len(value):,} characters)"
+    if isinstance(value, (list, tuple)) and len(value) > 8:
+        return (repr(type(value)(value[:3]))[:-1] + f", ... ({len(value):,} items)"
+                + ("]" if isinstance(value, list) else ")"))
+    text = repr(value)
+    return text if len(text) <= limit else text[:limit - 3] + "..."
+
+
+def _text_problem(text: str) -> str | None:
+    """Why a quantity text is refused before pint parses it, or None.
+
+    Exponents must be plain numbers (``m^2``, ``s**-1``): pint evaluates an exponent tower
+    such as ``2**2**2**2**2**2`` as Python arithmetic and never ends.
+    """
+    if len(text) > QUANTITY_TEXT_LIMIT:
+        return f"is {len(text):,} characters long; expected at most {QUANTITY_TEXT_LIMIT}"
+    for m in _EXPONENT_OPERATOR.finditer(text):
+        e = _PLAIN_EXPONENT.match(text, m.end())
+        if e is None or _EXPONENT_OPERATOR.match(text[e.end():].lstrip()):
+            return "has an exponent that is not a plain number; expected e.g. 'm^2' or 's^-1'"
+    for symbol, instead in _SYMBOL_HINTS.items():
+        if symbol in text:
+            return f"uses the symbol {symbol!r}, which is not read; write {instead!r} instead"
+    return None
 
 
 def parse_quantity(value: Any, name: str = "value") -> pint.Quantity:
@@ -99,30 +143,70 @@ def parse_quantity(value: Any, name: str = "value") -> pint.Quantity:
         # A Quantity of another registry: rebuild it here through its unit name.
         return Q_(value.magnitude, str(value.units))
     if isinstance(value, str):
-        text = value.strip()
-        match = _NUMBER_UNIT.match(text)
-        try:
-            if match:
-                unit = match.group("unit") or "dimensionless"
-                return Q_(float(match.group("num")), unit)
-            return Q_(text)
-        except (pint.errors.PintError, AttributeError, TypeError, ValueError, SyntaxError) as exc:
-            raise UnitInputError(
-                f"{name}: cannot read {value!r} as a quantity ({exc.__class__.__name__}); "
-                "expected a number and a unit such as '15 degC' or '2 bar'"
-            ) from None
+        return _parse_text(value, name)
+    if isinstance(value, np.ndarray) and value.dtype.kind in "OUS":
+        value = value.tolist()
     if isinstance(value, (list, tuple)):
-        if value and all(isinstance(v, (str, pint.Quantity)) for v in value):
-            parts = [parse_quantity(v, name) for v in value]
-            unit = parts[0].units
-            return Q_(np.array([p.to(unit).magnitude for p in parts]), unit)
-        value = np.asarray(value, dtype=float)
-    if isinstance(value, (int, float, np.integer, np.floating, np.ndarray)):
-        return Q_(value, "dimensionless")
+        return _parse_list(value, name)
+    if isinstance(value, (bool, np.bool_)):
+        raise UnitInputError(f"{name}: {value!r} is not a quantity; expected a string such as "
+                             "'15 degC', a pint Quantity or a number")
+    if isinstance(value, (int, float, np.integer, np.floating)):
+        return Q_(float(value), "dimensionless")
+    if isinstance(value, np.ndarray):
+        if value.dtype.kind not in "iuf":
+            raise UnitInputError(f"{name}: an array of {value.dtype} is not a quantity; "
+                                 "expected real numbers")
+        return Q_(value.astype(float), "dimensionless")
     raise UnitInputError(
-        f"{name}: cannot read {value!r} (type {type(value).__name__}) as a quantity; "
+        f"{name}: cannot read {shown(value)} (type {type(value).__name__}) as a quantity; "
         "expected a string such as '15 degC', a pint Quantity or a number"
     )
+
+
+def _parse_text(value: str, name: str) -> pint.Quantity:
+    """A quantity from a user's text; any failure of the parser is a :class:`UnitInputError`."""
+    text = value.strip()
+    problem = _text_problem(text)
+    if problem is not None:
+        raise UnitInputError(f"{name}: {shown(value)} {problem}")
+    match = _NUMBER_UNIT.match(text)
+    try:
+        if match:
+            unit = match.group("unit") or "dimensionless"
+            q = Q_(float(match.group("num")), unit)
+        else:
+            q = Q_(text)
+        if not isinstance(q, pint.Quantity):  # pint reads a bare number text as a number
+            q = Q_(float(q), "dimensionless")
+        return q
+    except Exception:  # noqa: BLE001 - pint's parser fails in many ways on odd text
+        raise UnitInputError(f"{name}: cannot read {shown(value)} as a quantity; "
+                             f"{_EXAMPLE_TEXT}") from None
+
+
+def _parse_list(values, name: str) -> pint.Quantity:
+    """One array Quantity from a list of quantities (all with units) or of bare numbers."""
+    texts = [isinstance(v, (str, pint.Quantity)) for v in values]
+    if values and all(texts):
+        parts = [parse_quantity(v, f"{name}[{i}]") for i, v in enumerate(values)]
+        unit = parts[0].units
+        for i, p in enumerate(parts):
+            if p.dimensionality != parts[0].dimensionality:
+                raise UnitInputError(f"{name}[{i}]: {shown(values[i])} has another dimension "
+                                     f"than {shown(values[0])}; expected one kind of quantity")
+        return Q_(np.array([p.to(unit).magnitude for p in parts], dtype=float), unit)
+    if any(texts):
+        i = texts.index(True)
+        raise UnitInputError(f"{name}: {shown(values)} mixes values with units ({name}[{i}] = "
+                             f"{shown(values[i])}) and bare numbers; expected every value "
+                             "with its unit")
+    try:
+        array = np.asarray(values, dtype=float)
+    except (TypeError, ValueError, OverflowError):
+        raise UnitInputError(f"{name}: {shown(values)} is not a list of numbers; expected "
+                             "numbers or strings such as '15 degC'") from None
+    return Q_(array, "dimensionless")
 
 
 def to_si(value: Any, dimension: str, name: str = "value") -> float | np.ndarray:
@@ -155,7 +239,7 @@ def to_si(value: Any, dimension: str, name: str = "value") -> float | np.ndarray
         if q.dimensionless and not isinstance(value, (str, pint.Quantity)):
             got = "a bare number"
         raise UnitInputError(
-            f"{name}: {value!r} has dimension {got}; expected {dim_text(dim)}"
+            f"{name}: {shown(value)} has dimension {got}; expected {dim_text(dim)}"
             f" (e.g. {example_unit(dim)})"
         )
     unit = SI_UNITS.get(str(dim)) if str(dim) != "dimensionless" else ""

@@ -77,7 +77,9 @@ from similitude.readers.fields import (
     FieldReader,
     key_path,
     show,
+    show_text,
 )
+from similitude.readers.input_files import TEXT_FILE_LIMIT, read_limited, shown_path
 from similitude.readers.measured import read_open_water_runs, read_resistance_runs
 from similitude.units import UnitInputError, parse_quantity, parse_scale
 
@@ -101,7 +103,7 @@ _LIMITS = {
     "heading": (-360.0, 360.0),                # deg
     "duration": (1.0, 7 * 86400.0),            # s
     "waiting": (0.0, 86400.0),                 # s
-    "current": (-10.0, 10.0),                  # m/s
+    "current": (0.0, 10.0),                    # m/s: a speed; its direction is not modelled
     "draught": (1e-3, 100.0),                  # m
     "trim": (-50.0, 50.0),                     # m
     "displacement": (1e-9, 1e7),               # m^3
@@ -159,12 +161,6 @@ CASE_KEYS: dict[str, tuple[str, ...]] = {
     "runs": RUNS_KEYS, "runs.loading": LOADING_KEYS, "runs.waves": WAVE_KEYS,
     "propulsion": PROPULSION_KEYS, "propulsion.resistance_estimate": RESISTANCE_ESTIMATE_KEYS,
 }
-
-def _show_path(path: str) -> str:
-    """A path as written in a message; a long one keeps its end (the file name)."""
-    text = repr(path)
-    return text if len(text) <= 80 else "'..." + text[-76:]
-
 
 # -- fluids ---------------------------------------------------------------------------------
 
@@ -398,7 +394,7 @@ def _read_matching(r: FieldReader, data: Any) -> MatchRequest | None:
     try:
         return MatchRequest(**kw)
     except InputError as exc:
-        r.problems.extend(exc.problems)
+        r.problems.extend(_as_written(line, {"match.": "matching."}) for line in exc.problems)
         return None
 
 
@@ -516,8 +512,21 @@ def _read_runs(r: FieldReader, data: Any) -> MatrixSpec | None:
     try:
         return MatrixSpec(**kw)
     except InputError as exc:
-        r.problems.extend(exc.problems)
+        r.problems.extend(_as_written(line, MATRIX_KEYS) for line in exc.problems)
         return None
+
+
+#: The fields of MatrixSpec as a case file names them (its messages say "matrix.current").
+MATRIX_KEYS = {"matrix.speed_basis": "runs.speeds_as", "matrix.waiting_time":
+               "runs.wait_between_runs", "matrix.": "runs."}
+
+
+def _as_written(line: str, names: dict[str, str]) -> str:
+    """A message of a dataclass check with its field names as the file writes them."""
+    for inside, written in names.items():
+        if line.startswith(inside):
+            return written + line[len(inside):]
+    return line
 
 
 def _measured_file(r: FieldReader, value: Any, path: str, base_dir: Path, reader, **kw):
@@ -738,7 +747,7 @@ def _facility_from_file(r: FieldReader, rel: str, base_dir: Path) -> Facility | 
     except InputError as exc:
         r.problems.extend(exc.problems)
         return None
-    sub = FieldReader(where=f"facility file {_show_path(rel)}", top_keys=TOP_KEYS)
+    sub = FieldReader(where=f"facility file {shown_path(rel)}", top_keys=TOP_KEYS)
     fac = _read_facility_table(sub, doc, "facility")
     r.problems.extend(sub.problems)
     return fac
@@ -746,18 +755,8 @@ def _facility_from_file(r: FieldReader, rel: str, base_dir: Path) -> Facility | 
 
 def _read_toml(path: Path, what: str) -> dict:
     """Read a TOML file; every failure becomes an InputError line."""
-    label = f"{what} file {_show_path(str(path))}"
-    try:
-        data = path.read_bytes()
-    except FileNotFoundError:
-        raise InputError(f"{label}: not found; expected an existing TOML file") from None
-    except IsADirectoryError:
-        raise InputError(f"{label}: is a folder; expected a TOML file") from None
-    except OSError as exc:
-        raise InputError(f"{label}: cannot be read ({exc.strerror}); expected a readable "
-                         "TOML file") from None
-    except ValueError:  # e.g. a NUL character in the path
-        raise InputError(f"{label}: is not a usable path; expected a file name") from None
+    label = f"{what} file {shown_path(path)}"
+    data = read_limited(path, label, TEXT_FILE_LIMIT, "a TOML text file")
     if not data.strip():
         raise InputError(f"{label}: is empty; expected a TOML case with [prototype] and "
                          "[facility] tables" if what == "case" else
@@ -772,8 +771,8 @@ def _read_toml(path: Path, what: str) -> dict:
     try:
         return tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
-        raise InputError(f"{label}: is not valid TOML ({exc}); expected TOML syntax such as "
-                         "length = \"78 m\"") from None
+        raise InputError(f"{label}: is not valid TOML ({show_text(str(exc))}); expected TOML "
+                         "syntax such as length = \"78 m\"") from None
     except RecursionError:
         raise InputError(f"{label}: is nested too deeply; expected a flat TOML case") from None
 
@@ -782,7 +781,7 @@ def load_facility(path: str | Path) -> Facility:
     """Read a facility file (TOML, the keys of a ``[facility]`` table) into a Facility."""
     p = Path(path)
     doc = _read_toml(p, "facility")
-    return parse_facility(doc, where=f"facility file {str(p)!r}")
+    return parse_facility(doc, where=f"facility file {shown_path(p)}")
 
 
 def load_case(path: str | Path) -> Case:

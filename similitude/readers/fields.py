@@ -17,6 +17,7 @@ import math
 from collections.abc import Mapping
 from typing import Any
 
+from fluids_props.units import shown
 from similitude.errors import BAD_INPUT_ERRORS, InputError
 from similitude.units import UnitInputError, parse_quantity, to_rotation_rate, to_si
 
@@ -54,9 +55,14 @@ MISSING = object()
 
 
 def show(value: Any) -> str:
-    """A value as written in a message, shortened."""
-    text = repr(value)
-    return text if len(text) <= 60 else text[:57] + "..."
+    """A value as written in a message, shortened (:func:`fluids_props.units.shown`)."""
+    return shown(value)
+
+
+def show_text(text: str, limit: int = 200) -> str:
+    """A message from elsewhere (a parser's) quoted in ours, cut to ``limit`` characters."""
+    text = str(text)
+    return text if len(text) <= limit else text[:limit - 3] + "..."
 
 
 def key_path(path: str, key: str | int) -> str:
@@ -122,6 +128,9 @@ class FieldReader:
         if isinstance(data, Mapping):
             return [data]
         if isinstance(data, list):
+            if not data:
+                self.problem(path, f"empty list; expected at least one [[{path}]] table, or "
+                             "no key at all")
             return data
         self.problem(path, f"{show(data)} is not valid; expected [[{path}]] tables")
         return []
@@ -206,10 +215,10 @@ class FieldReader:
             if bare_unit is not None:
                 # Angles: a bare number is read in bare_unit, a string may carry its unit.
                 q = parse_quantity(value, path)
-                if not q.dimensionless:
-                    raise UnitInputError(f"{path}: {value!r} is not an angle; expected "
-                                         f"a number of degrees or a string such as '180 deg'")
                 plain = str(q.units) in ("dimensionless", "")
+                if not q.dimensionless or not (plain or _is_angle(q.units)):
+                    raise UnitInputError(f"{path}: {show(value)} is not an angle; expected "
+                                         f"a number of degrees or a string such as '180 deg'")
                 si = float(q.magnitude) if plain else float(q.to(bare_unit).magnitude)
             else:
                 # n of J = V/(nD) counts revolutions (pint counts rpm in radians).
@@ -219,9 +228,9 @@ class FieldReader:
             prefix = f"{path}: "
             self.problem(path, text[len(prefix):] if text.startswith(prefix) else text)
             return None
-        except Exception as exc:  # pint can fail in many ways on odd strings
-            self.problem(path, f"cannot read {show(value)} ({exc.__class__.__name__}); "
-                         f"expected {what}, e.g. {DIM_EXAMPLES.get(dim, '')}")
+        except Exception:  # noqa: BLE001 - pint can fail in many ways on odd strings
+            self.problem(path, f"cannot read {show(value)}; expected {what}, e.g. "
+                         f"{DIM_EXAMPLES.get(dim, '')}")
             return None
         if not isinstance(si, float):
             self.problem(path, f"{show(value)} is not one value; expected a single {what}")
@@ -299,6 +308,14 @@ class FieldReader:
         return (lo, hi)
 
 
+#: Units of plane angle (pint counts them dimensionless, like a percentage, which is not one).
+ANGLE_UNITS = ("radian", "degree", "arcminute", "arcsecond", "turn", "gradian")
+
+
+def _is_angle(units) -> bool:
+    return str(units) in ANGLE_UNITS
+
+
 def _si_text(si: float, dim: str, unit: str | None = None) -> str:
     if unit is not None:
         return f"{si:g} {unit}"
@@ -330,4 +347,5 @@ __all__ = [
     "FieldReader",
     "key_path",
     "show",
+    "show_text",
 ]

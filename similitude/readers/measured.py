@@ -13,15 +13,16 @@ start, and reading measured files must not make that start pay for pandas.
 
 from __future__ import annotations
 
+import io
 import math
 import re
+import zipfile
 from collections.abc import Iterable
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
 import numpy as np
-import pint
 
 from fluids_props.water import fresh_water_si
 from similitude.errors import InputError
@@ -33,7 +34,22 @@ from similitude.prediction.runs import (
     SelfPropulsionRuns,
     run_id,
 )
-from similitude.units import radians_per_turn, spell_revolutions, to_si, ureg
+from similitude.readers.fields import show, show_text
+from similitude.readers.input_files import (
+    DATA_FILE_LIMIT,
+    UNPACKED_LIMIT,
+    read_limited,
+    shown_path,
+    size_text,
+)
+from similitude.units import (
+    UnitInputError,
+    parse_quantity,
+    radians_per_turn,
+    spell_revolutions,
+    to_si,
+    ureg,
+)
 
 _HEADER = re.compile(r"^\s*(?P<name>.*?)\s*\[(?P<unit>[^\]]*)\]\s*$")
 
@@ -141,12 +157,11 @@ def _unit_factor(unit: str, spec: ColumnSpec, header: str):
         text = "dimensionless"
     if spec.dimension == "1 / [time]":
         text = spell_revolutions(text)
-    try:
-        probe = ureg.Quantity(1.0, text)
-    except (pint.errors.PintError, AttributeError, TypeError, ValueError, SyntaxError,
-            AssertionError):
+    try:  # the shared parser: guarded against odd text, any failure a UnitInputError
+        probe = parse_quantity("1 " + text, "unit")
+    except UnitInputError:
         raise InputError(
-            f"column {header!r}: unit {unit!r} is not a known unit; expected e.g. "
+            f"column {show(header)}: unit {show(unit)} is not a known unit; expected e.g. "
             f"{spec.example!r}"
         ) from None
     expected = (ureg.Quantity(1.0, "dimensionless").dimensionality
@@ -154,8 +169,8 @@ def _unit_factor(unit: str, spec: ColumnSpec, header: str):
                 else ureg.get_dimensionality(spec.dimension))
     if probe.dimensionality != expected:
         raise InputError(
-            f"column {header!r}: unit {unit!r} has dimension {probe.dimensionality}; expected "
-            f"{spec.dimension} (e.g. {spec.example!r})"
+            f"column {show(header)}: unit {show(unit)} has dimension {probe.dimensionality}; "
+            f"expected {spec.dimension} (e.g. {spec.example!r})"
         )
 
     # pint counts rpm and rps in radians (120 rpm -> 12.57 rad/s); a propeller's rotation rate
@@ -191,6 +206,13 @@ def _to_float(value: Any) -> float | None:
 def read_table(path: str | Path, sheet: str | int | None = None):
     """Read a CSV or xlsx file into a DataFrame of raw cells (strings or numbers).
 
+    The header is the first row that is not blank (or a ``#`` comment line of a CSV file); the
+    rows keep their numbers as a spreadsheet shows them (``frame.attrs["rows"]``), so messages
+    name the row a person finds. The file is checked before it is read
+    (:func:`similitude.readers.input_files.read_limited`: a regular file of at most
+    :data:`~similitude.readers.input_files.DATA_FILE_LIMIT` bytes; an xlsx file must unpack to
+    at most :data:`~similitude.readers.input_files.UNPACKED_LIMIT` bytes).
+
     Parameters
     ----------
     path : str or Path
@@ -201,31 +223,110 @@ def read_table(path: str | Path, sheet: str | int | None = None):
     Raises
     ------
     InputError
-        Missing file, unknown file type or an unreadable file.
+        Missing, unreadable, too large or broken file, unknown file type, no header row, or a
+        header written twice.
     """
-    import pandas as pd
-
     p = Path(path)
-    if not p.is_file():
-        raise InputError(f"measured data: file {str(p)!r} not found; expected a .csv or .xlsx")
+    label = f"measured data {shown_path(p.name or p)}"
     suffix = p.suffix.lower()
+    if suffix not in (".csv", ".xlsx", ".xlsm"):
+        raise InputError(f"{label}: has type {suffix or '(none)'!r}; expected .csv or .xlsx")
+    data = read_limited(p, label, DATA_FILE_LIMIT, "a .csv or .xlsx table of runs")
+    cells = _csv_cells(data, label) if suffix == ".csv" else _xlsx_cells(data, label, sheet)
+    return _with_header(cells, label)
+
+
+def _csv_cells(data: bytes, label: str):
+    """Every cell of a CSV file as text, one frame row per line that is not blank or a
+    comment, indexed by its line number."""
+    import pandas as pd  # heavy: only when a measured file is read
+
     try:
-        if suffix == ".csv":
-            frame = pd.read_csv(p, dtype=str, comment="#", skipinitialspace=True,
-                                keep_default_na=False)
-        elif suffix in (".xlsx", ".xlsm"):
-            frame = pd.read_excel(p, sheet_name=0 if sheet is None else sheet, dtype=object)
-        else:
-            raise InputError(
-                f"measured data: {p.name!r} has type {suffix or '(none)'!r}; expected .csv or "
-                ".xlsx"
-            )
-    except InputError:
-        raise
-    except (ValueError, OSError, KeyError) as exc:
-        raise InputError(f"measured data: cannot read {p.name!r} ({exc})") from None
-    frame = frame.dropna(how="all")
+        text = data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(f"{label}: is not UTF-8 text (byte {exc.start}); expected a UTF-8 "
+                         "CSV file") from None
+    if "\x00" in text:
+        raise InputError(f"{label}: holds binary data; expected a UTF-8 CSV file")
+    # comment and blank lines are left out; each frame row keeps its line number
+    numbered = [(n, line) for n, line in enumerate(text.splitlines(), start=1)
+                if line.strip() and not line.lstrip().startswith("#")]
+    if not numbered:
+        raise InputError(f"{label}: is empty; expected a header row and one row per run")
+    try:
+        cells = pd.read_csv(io.StringIO("\n".join(line for _, line in numbered) + "\n"),
+                            header=None, dtype=str, comment="#", skipinitialspace=True,
+                            keep_default_na=False, skip_blank_lines=False)
+    except (ValueError, pd.errors.ParserError, pd.errors.EmptyDataError) as exc:
+        raise InputError(f"{label}: is not a valid CSV table ({show_text(exc)}); expected "
+                         "the same number of comma-separated fields on every line") from None
+    cells.index = [n for n, _ in numbered][:len(cells)]
+    return cells
+
+
+def _xlsx_cells(data: bytes, label: str, sheet):
+    """Every cell of one sheet of an xlsx file, indexed by the sheet's row numbers."""
+    import pandas as pd  # heavy: only when a measured file is read
+
+    buffer = io.BytesIO(data)
+    try:
+        with zipfile.ZipFile(buffer) as z:
+            unpacked = sum(i.file_size for i in z.infolist())
+    except (zipfile.BadZipFile, OSError, ValueError):
+        raise InputError(f"{label}: is not a workbook (not a zip container); expected an xlsx "
+                         "file saved by a spreadsheet program") from None
+    if unpacked > UNPACKED_LIMIT:
+        raise InputError(f"{label}: unpacks to {size_text(unpacked)}; expected a workbook of "
+                         f"at most {size_text(UNPACKED_LIMIT)} unpacked")
+    try:
+        frame = pd.read_excel(buffer, sheet_name=0 if sheet is None else sheet, header=None,
+                              dtype=object)
+    except Exception as exc:  # noqa: BLE001 - a broken package fails in many ways inside
+        raise InputError(f"{label}: cannot be read as a workbook ({type(exc).__name__}: "
+                         f"{show_text(exc, 120)}); expected an xlsx file saved by a spreadsheet "
+                         "program") from None
+    frame.index = frame.index + 1  # the sheet's row numbers
     return frame
+
+
+def _with_header(cells, label: str):
+    """The frame under its header row, rows numbered as the spreadsheet shows them."""
+    blank = cells.apply(lambda col: col.map(_is_blank)).all(axis=1).to_numpy()
+    filled = np.flatnonzero(~blank)
+    if filled.size == 0:
+        raise InputError(f"{label}: has no header row; expected a header row such as "
+                         "'model speed [m/s],total resistance [N],water temperature [degC]'")
+    head = int(filled[0])
+    headers = ["" if _is_blank(h) else str(h).strip() for h in cells.iloc[head].tolist()]
+    _check_headers(headers, label)
+    body = cells.iloc[head + 1:]
+    keep = ~blank[head + 1:]
+    frame = body[keep]
+    frame.columns = headers
+    frame.attrs["rows"] = [int(i) for i in np.asarray(body.index)[keep]]
+    return frame.reset_index(drop=True)
+
+
+def _check_headers(headers: list, label: str) -> None:
+    """Refuse a header written over two columns (which of them would count?)."""
+    seen: dict[str, int] = {}
+    problems = []
+    for j, h in enumerate(str(h).strip() for h in headers):
+        if h and h in seen:
+            problems.append(f"{label}: columns {seen[h] + 1} and {j + 1} both have the header "
+                            f"{show(h)}; expected each column once")
+        seen.setdefault(h, j)
+    if problems:
+        raise InputError(_bounded(problems))
+
+
+def row_numbers(frame) -> list[int]:
+    """The spreadsheet row of each frame row: as read (:func:`read_table`), else the header in
+    row 1 and the runs from row 2."""
+    rows = frame.attrs.get("rows")
+    if rows is not None and len(rows) == len(frame):
+        return list(rows)
+    return [i + 2 for i in range(len(frame))]
 
 
 def _find_columns(headers: list[Any], specs: Iterable[ColumnSpec], where: str,
@@ -237,8 +338,8 @@ def _find_columns(headers: list[Any], specs: Iterable[ColumnSpec], where: str,
         for spec in specs:
             if name in spec.names:
                 if spec.key in found:
-                    problems.append(f"{where}columns {found[spec.key][1]!r} and {header!r} both "
-                                    f"give {spec.names[0]}; expected one")
+                    problems.append(f"{where}columns {show(found[spec.key][1])} and "
+                                    f"{show(header)} both give {spec.names[0]}; expected one")
                 found[spec.key] = (spec, str(header), unit)
                 break
     return found
@@ -253,24 +354,29 @@ def _run_ids(cells: list[Any]) -> list[str]:
             for cell in cells]
 
 
-def _numbers(cells: list[Any], row_numbers: list[int], header: str, where: str,
+#: Problems named one by one in a column; further ones are counted in one line.
+MAX_PROBLEMS_PER_COLUMN = 20
+
+
+def _numbers(cells: list[Any], rows: list[int], header: str, where: str,
              problems: list[str]) -> np.ndarray | None:
-    """The cells of one column as floats, or None after a problem per bad cell."""
+    """The cells of one column as floats, or None after a problem per bad cell (the first
+    :data:`MAX_PROBLEMS_PER_COLUMN`, then a count of the others)."""
     values = np.empty(len(cells))
-    bad = False
-    for i, (row, cell) in enumerate(zip(row_numbers, cells, strict=True)):
-        if _is_blank(cell):
-            problems.append(f"{where}row {row}, column {header!r}: empty cell; expected a "
+    bad = 0
+    for i, (row, cell) in enumerate(zip(rows, cells, strict=True)):
+        number = None if _is_blank(cell) else _to_float(cell)
+        if number is not None and math.isfinite(number):
+            values[i] = number
+            continue
+        bad += 1
+        if bad <= MAX_PROBLEMS_PER_COLUMN:
+            what = "empty cell" if _is_blank(cell) else f"{show(cell)} is not a finite number"
+            problems.append(f"{where}row {row}, column {show(header)}: {what}; expected a "
                             "number")
-            bad = True
-            continue
-        number = _to_float(cell)
-        if number is None or not math.isfinite(number):
-            problems.append(f"{where}row {row}, column {header!r}: {cell!r} is not a "
-                            "finite number")
-            bad = True
-            continue
-        values[i] = number
+    if bad > MAX_PROBLEMS_PER_COLUMN:
+        problems.append(f"{where}column {show(header)}: {bad - MAX_PROBLEMS_PER_COLUMN} more "
+                        "rows without a finite number; expected a number in every row")
     return None if bad else values
 
 
@@ -306,16 +412,18 @@ def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
     problems: list[str] = []
     where = f"{source}: " if source else ""
     headers = list(frame.columns)
+    _check_headers(headers, where.rstrip(": ") or "measured data")
     found = _find_columns(headers, specs, where, problems)
     n = len(frame)
     out: dict[str, Any] = {}
-    # Rows are numbered as a spreadsheet shows them: the header is row 1.
-    row_numbers = [int(i) + 2 for i in range(n)]
+    # Rows are numbered as a spreadsheet shows them (row_numbers), kept for later messages.
+    rows = row_numbers(frame)
+    out["rows"] = rows
     for spec in specs:
         if spec.key in given and given[spec.key] is not None:
             if spec.key in found:
                 problems.append(f"{where}{spec.names[0]}: given both as column "
-                                f"{found[spec.key][1]!r} and as a single value; expected one")
+                                f"{show(found[spec.key][1])} and as a single value; expected one")
                 continue
             value = to_si(given[spec.key], spec.dimension, spec.names[0])
             out[spec.key] = np.full(n, value, dtype=float)
@@ -323,7 +431,7 @@ def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
         if spec.key not in found:
             if spec.required:
                 problems.append(f"{where}column {spec.example!r} missing; found columns "
-                                + ", ".join(repr(str(h)) for h in headers))
+                                + _short([show(str(h)) for h in headers]))
             continue
         spec, header, unit = found[spec.key]
         cells = list(frame[header])
@@ -331,54 +439,75 @@ def columns_to_si(frame, specs: Iterable[ColumnSpec], source: str = "",
             out[spec.key] = _run_ids(cells)
             continue
         if unit is None:
-            problems.append(f"{where}column {header!r} has no unit in its header; expected e.g. "
-                            f"{spec.example!r}")
+            problems.append(f"{where}column {show(header)} has no unit in its header; "
+                            f"expected e.g. {spec.example!r}")
             continue
         try:
             convert = _unit_factor(unit, spec, header)
         except InputError as exc:
             problems.extend(f"{where}{p}" for p in exc.problems)
             continue
-        values = _numbers(cells, row_numbers, header, where, problems)
+        values = _numbers(cells, rows, header, where, problems)
         if values is not None:
-            out[spec.key] = convert(values)
+            si = convert(values)
+            for i in np.flatnonzero(~np.isfinite(si))[:MAX_PROBLEMS_PER_COLUMN]:
+                problems.append(f"{where}row {rows[i]}, column {show(header)}: {show(cells[i])} "
+                                f"{unit} is not a finite value in {spec.si_unit or 'SI'}; "
+                                "expected a measured value")
+            out[spec.key] = si
     if problems:
-        raise InputError(problems)
+        raise InputError(_bounded(problems))
     return out
 
 
 def _check_ids(ids: list[str], where: str, plan_runs: Iterable[Any] | None,
-               problems: list[str]) -> None:
+               problems: list[str], rows: list[int]) -> None:
     seen: dict[str, int] = {}
     for i, rid in enumerate(ids):
         if rid in seen:
-            problems.append(f"{where}row {i + 2}, column 'run': run id {rid!r} repeats row "
-                            f"{seen[rid] + 2}; expected each run once")
+            problems.append(f"{where}row {rows[i]}, column 'run': run id {show(rid)} repeats "
+                            f"row {rows[seen[rid]]}; expected each run once")
         else:
             seen[rid] = i
     if plan_runs is not None:
         allowed = {run_id(r) for r in plan_runs}
         for i, rid in enumerate(ids):
             if rid not in allowed and not rid.startswith(EXTRA_RUN_PREFIX):
-                problems.append(f"{where}row {i + 2}, column 'run': run {rid!r} is not in the "
-                                f"plan's run matrix; expected one of {_short(sorted(allowed))}")
+                problems.append(f"{where}row {rows[i]}, column 'run': run {show(rid)} is not in "
+                                f"the plan's run matrix; expected one of "
+                                f"{_short(sorted(allowed))}")
+
+
+#: Problems reported one per line; the rest are counted in one more line.
+MAX_PROBLEMS = 50
+
+
+def _bounded(problems: list[str]) -> list[str]:
+    """At most :data:`MAX_PROBLEMS` lines, then how many more there were."""
+    if len(problems) <= MAX_PROBLEMS:
+        return problems
+    return problems[:MAX_PROBLEMS] + [f"... and {len(problems) - MAX_PROBLEMS} more problems "
+                                      "in the same file"]
 
 
 def _positive_cells(cols: dict[str, Any], columns: Iterable[tuple[str, str]], where: str,
                     problems: list[str]) -> None:
     """A problem for each cell of the (key, column name) columns that is not > 0."""
+    rows = cols["rows"]
     for key, label in columns:
         for i, v in enumerate(cols[key]):
             if not v > 0:
-                problems.append(f"{where}row {i + 2}, column {label!r}: {label} {v:g} "
+                problems.append(f"{where}row {rows[i]}, column {label!r}: {label} {v:g} "
                                 f"(SI) is not positive; expected a {label} > 0")
 
 
-def _tank_temperatures(values: np.ndarray, where: str, problems: list[str]) -> None:
+def _tank_temperatures(values: np.ndarray, where: str, problems: list[str],
+                       rows: list[int]) -> None:
     """A problem for each water temperature outside 0 to 40 degC (a towing tank's)."""
     for i, v in enumerate(values):
         if not 273.15 <= v <= 313.15:
-            problems.append(f"{where}row {i + 2}, column 'water temperature': {v - 273.15:.2f} "
+            problems.append(f"{where}row {rows[i]}, column 'water temperature': "
+                            f"{v - 273.15:.2f} "
                             "degC; expected a tank temperature between 0 and 40 degC")
 
 
@@ -398,7 +527,7 @@ def _ids(cols: dict[str, Any], n: int, run_ids: str, plan_runs, where: str,
     if "run" not in cols:
         return [str(i + 1) for i in range(n)], "numbered"
     ids = cols["run"]
-    _check_ids(ids, where, plan_runs if run_ids == "plan" else None, problems)
+    _check_ids(ids, where, plan_runs if run_ids == "plan" else None, problems, cols["rows"])
     return ids, run_ids
 
 
@@ -443,14 +572,15 @@ def resistance_runs_from_frame(frame, temperature: Any = None,
     ids, kind = _ids(cols, len(frame), run_ids, plan_runs, where, problems)
     _positive_cells(cols, (("speed", "model speed"), ("resistance", "total resistance")),
                     where, problems)
-    _tank_temperatures(cols["temperature"], where, problems)
+    _tank_temperatures(cols["temperature"], where, problems, cols["rows"])
     if "stimulator_drag" in cols:
         for i, v in enumerate(cols["stimulator_drag"]):
             if v < 0 or v >= cols["resistance"][i]:
-                problems.append(f"{where}row {i + 2}, column 'stimulator drag': {v:g} N; "
+                problems.append(f"{where}row {cols['rows'][i]}, column 'stimulator drag': "
+                                f"{v:g} N; "
                                 "expected 0 <= stimulator drag < total resistance")
     if problems:
-        raise InputError(problems)
+        raise InputError(_bounded(problems))
     return ResistanceRuns(tuple(ids), cols["speed"], cols["resistance"], cols["temperature"],
                           cols.get("sinkage"), cols.get("trim"), cols.get("stimulator_drag"),
                           source, kind)
@@ -520,7 +650,8 @@ def open_water_runs_from_frame(frame, diameter: float | None = None,
     cols = columns_to_si(frame, OPEN_WATER_COLUMNS, source, {"temperature": temperature})
     problems: list[str] = []
     ids = cols.get("run") or [str(i + 1) for i in range(len(frame))]
-    _check_ids(ids, where, None, problems)
+    rows = cols["rows"]
+    _check_ids(ids, where, None, problems, rows)
     n = cols.get("rotation_rate")
     va = cols.get("advance_speed")
     j = cols.get("advance_ratio")
@@ -536,7 +667,7 @@ def open_water_runs_from_frame(frame, diameter: float | None = None,
     if (kt is None or kq is None) and (density is None or not np.all(np.asarray(density) > 0)):
         problems.append(f"{where}water density: missing; expected it to reduce thrust and torque")
     if problems:
-        raise InputError(problems)
+        raise InputError(_bounded(problems))
     if j is None:
         if va is None or n is None:
             raise InputError(f"{where}column 'advance ratio [-]' missing; expected it or both "
@@ -554,14 +685,18 @@ def open_water_runs_from_frame(frame, diameter: float | None = None,
         kq = cols["torque"] / (density * n**2 * diameter**5)
     for i in range(len(ids)):
         if not j[i] >= 0:
-            problems.append(f"{where}row {i + 2}: advance ratio {j[i]:g}; expected J >= 0")
+            problems.append(f"{where}row {rows[i]}, column 'advance ratio': {j[i]:g}; "
+                            "expected J >= 0")
         if not kq[i] > 0:
-            problems.append(f"{where}row {i + 2}: torque coefficient {kq[i]:g}; expected "
+            problems.append(f"{where}row {rows[i]}, column 'torque coefficient': {kq[i]:g}; "
+                            "expected "
                             "K_Q > 0")
-    if n is not None and np.any(n <= 0):
-        problems.append(f"{where}column 'rotation rate': values must be > 0")
+    if n is not None:
+        for i in np.flatnonzero(~(n > 0)):
+            problems.append(f"{where}row {rows[i]}, column 'rotation rate': {n[i]:g} 1/s; "
+                            "expected a rotation rate > 0")
     if problems:
-        raise InputError(problems)
+        raise InputError(_bounded(problems))
     return OpenWaterRuns(tuple(ids), np.asarray(j, float), np.asarray(kt, float),
                          np.asarray(kq, float), cols.get("temperature"), n, va, source)
 
@@ -605,7 +740,7 @@ def self_propulsion_runs_from_frame(frame, temperature: Any = None, source: str 
     ids, kind = _ids(cols, len(frame), run_ids, plan_runs, where, problems)
     _positive_cells(cols, (("speed", "model speed"), ("rotation_rate", "rotation rate"),
                            ("thrust", "thrust"), ("torque", "torque")), where, problems)
-    _tank_temperatures(cols["temperature"], where, problems)
+    _tank_temperatures(cols["temperature"], where, problems, cols["rows"])
     if problems:
         raise InputError(problems)
     return SelfPropulsionRuns(tuple(ids), cols["speed"], cols["rotation_rate"], cols["thrust"],

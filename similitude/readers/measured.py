@@ -742,7 +742,7 @@ def self_propulsion_runs_from_frame(frame, temperature: Any = None, source: str 
                            ("thrust", "thrust"), ("torque", "torque")), where, problems)
     _tank_temperatures(cols["temperature"], where, problems, cols["rows"])
     if problems:
-        raise InputError(problems)
+        raise InputError(_bounded(problems))
     return SelfPropulsionRuns(tuple(ids), cols["speed"], cols["rotation_rate"], cols["thrust"],
                               cols["torque"], cols["tow_force"], cols["temperature"], source,
                               kind)

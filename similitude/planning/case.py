@@ -516,6 +516,35 @@ def _check_wave(w: WaveCondition, where: str) -> None:
                          + ", ".join(SPECTRA))
 
 
+#: Most run-matrix rows a case may ask for. Two bounds: a sheet holds 1,048,576 rows (Excel
+#: and LibreOffice) less the header rows of the Runs and Test day sheets, and the memory to plan
+#: and write them, about 0.6 kB a row (measured: 0.3 GB peak for 5*10^5 runs planned and
+#: written, benchmarks/bench_large_outputs.py), so about 0.6 GB at this limit.
+MAX_MATRIX_ROWS = 1_000_000
+
+
+def matrix_rows(spec: MatrixSpec, n_speeds: int) -> int:
+    """Rows of the run matrix of ``spec`` with ``n_speeds`` speeds (computed, nothing built):
+    loading conditions x wave conditions x headings x repeats x speeds."""
+    return (max(1, len(spec.loading)) * max(1, len(spec.waves)) * max(1, len(spec.headings))
+            * int(spec.repeats) * max(1, n_speeds))
+
+
+def _check_matrix_rows(case) -> None:
+    """Refuse a run matrix larger than :data:`MAX_MATRIX_ROWS`, before it is built."""
+    spec = case.matrix
+    n_speeds = len(spec.speeds) or len(case.prototype.speeds)
+    rows = matrix_rows(spec, n_speeds)
+    if rows <= MAX_MATRIX_ROWS:
+        return
+    parts = [f"{n_speeds} speeds", f"{max(1, len(spec.loading))} loading conditions",
+             f"{max(1, len(spec.waves))} wave conditions",
+             f"{max(1, len(spec.headings))} headings", f"{int(spec.repeats)} repeats"]
+    raise InputError(f"runs: {' x '.join(parts)} = {rows:,} run-matrix rows; expected at most "
+                     f"{MAX_MATRIX_ROWS:,} (a sheet holds 1,048,576 rows, and planning and "
+                     "writing take about 0.6 kB of memory a row)")
+
+
 @dataclass(frozen=True)
 class Case:
     """A whole planning case.
@@ -570,6 +599,7 @@ class Case:
                              f"{self.facility.kind.replace('_', ' ')}; expected a facility of "
                              f"kind {' or '.join(TEST_FACILITIES[test])}")
         object.__setattr__(self, "test", test)  # frozen: resolve the default once, here
+        _check_matrix_rows(self)
 
     @property
     def speed_unit_factor(self) -> float:

@@ -343,7 +343,15 @@ def header_row(ws, row: int, headers: Iterable, col: int = 1) -> None:
 
 
 def write_frame(ws, frame, row: int = 1, col: int = 1) -> tuple[int, int]:
-    """Write a small DataFrame with header, fitted number formats; returns (first, last) row."""
+    """Write a DataFrame with header, fitted number formats; returns (first, last) row.
+
+    A frame of more than :data:`LONG_FRAME_ROWS` rows is written as a long table
+    (:func:`long_table`, one number format per column): openpyxl's cells would take minutes
+    and gigabytes for 10^5 rows.
+    """
+    if len(frame) > LONG_FRAME_ROWS:
+        long_table(ws, frame, row, fit=False, first_column=col)
+        return row + 1, row + len(frame)
     header_row(ws, row, list(frame.columns), col)
     for j, name in enumerate(frame.columns):
         values = frame[name].to_numpy()
@@ -389,12 +397,12 @@ def fit_widths(ws, min_width: float = 8, max_width: float = MAX_WIDTH,
     three lines instead of a wide column.
     """
     widths: dict[int, float] = {}
-    rows = range(1, min(ws.max_row, sample) + 1) if rows is None else rows
-    for r in rows:
-        for c in ws[r]:
-            if c.value is not None and not (c.font is not None and c.font.sz
-                                            and c.font.sz > BODY_FONT_SIZE):
-                widths[c.column] = max(widths.get(c.column, 0), shown_width(c))
+    wanted = set(range(1, min(ws.max_row, sample) + 1) if rows is None else rows)
+    # the cells that exist (ws[r] would make every missing one, and scan the sheet per row)
+    for (r, _), c in list(ws._cells.items()):
+        if r in wanted and c.value is not None and not (
+                c.font is not None and c.font.sz and c.font.sz > BODY_FONT_SIZE):
+            widths[c.column] = max(widths.get(c.column, 0), shown_width(c))
     for j, w in widths.items():
         ws.column_dimensions[get_column_letter(j)].width = max(min_width, min(max_width, w))
 
@@ -786,8 +794,9 @@ def audit_formulas(ws, columns: Sequence[str], first: int, last: int,
     for k, (header, _) in enumerate(formulas):
         own[header] = get_column_letter(n + 1 + k)
     pattern = re.compile(r"\{([$@]?)([^{}]+)\}")
-    for r in range(first, last + 1):
-        def ref(m, r=r):
+
+    def text(template: str, r: int) -> str:
+        def ref(m):
             kind, name = m.group(1), m.group(2)
             if kind == "$":
                 return const_ref[name]
@@ -795,8 +804,19 @@ def audit_formulas(ws, columns: Sequence[str], first: int, last: int,
                 return f"{own[name]}{r}"
             return f"{letters[name]}{r}"
 
-        for k, (header, template) in enumerate(formulas):
-            c = ws.cell(row=r, column=n + 1 + k, value=formula(pattern.sub(ref, template)))
+        return pattern.sub(ref, template)
+
+    table = next((t for t in sheet_long_tables(ws)
+                  if t.first_row == first and t.last_row == last), None)
+    for k, (header, template) in enumerate(formulas):
+        if table is not None:  # a long table: the formula column is written with its rows
+            tmpl = ws.cell(row=first, column=n + 1 + k, value=0)
+            tmpl.number_format = _formula_format(header)
+            table.add_formula(n + 1 + k, tmpl.style_id,
+                              lambda r, template=template: text(template, r))
+            continue
+        for r in range(first, last + 1):
+            c = ws.cell(row=r, column=n + 1 + k, value=formula(text(template, r)))
             c.number_format = _formula_format(header)
 
 
@@ -810,13 +830,21 @@ def _formula_format(header: str) -> str:
 
 
 # -- long tables written as raw sheet XML --------------------------------------------------
+#: Frames longer than this [rows] are written by :func:`write_frame` as a long table.
+LONG_FRAME_ROWS = 500
+#: Rows of long tables generated and compressed at a time (bounds the memory of a write).
+CHUNK_ROWS = 5000
+
+
 @dataclass
 class LongTable:
     """Rows to write into a sheet after openpyxl has saved the package.
 
     ``columns`` holds (column letter, kind, style id, data) per column; kind is "num", "int",
     "bool", "str", or "formula" (data: row -> formula text without "="). Floats are written
-    exactly (``repr``), or with ``float_digits`` significant digits.
+    exactly (``repr``), or with ``float_digits`` significant digits. A sheet may hold several
+    long tables (side by side or one below another) and any cells openpyxl wrote in or below
+    their rows: :func:`write_long_tables` merges them row by row.
     """
 
     sheet: object
@@ -830,24 +858,41 @@ class LongTable:
         letter, _, style, _ = self.columns[index]
         self.columns[index] = (letter, "formula", style, formula)
 
+    def add_formula(self, column: int, style: int, formula: Callable[[int], str]) -> None:
+        """A further column (1-based ``column``) holding the formula ``formula(row)``."""
+        self.columns.append((get_column_letter(column), "formula", style, formula))
+
+    @property
+    def last_row(self) -> int:
+        return self.first_row + self.nrows - 1
+
+
+def sheet_long_tables(ws) -> list[LongTable]:
+    """The long tables registered on ``ws`` (written by :func:`save_workbook`)."""
+    return ws.__dict__.setdefault("similitude_long_tables", [])
+
 
 def long_table(ws, frame, header_row_number: int, formats: dict[str, str] | None = None,
-               fit: bool = True, float_digits: int | None = None) -> LongTable:
-    """Header via openpyxl, one template row for the styles; rows written by
-    :func:`write_long_tables` after saving.
+               fit: bool = True, float_digits: int | None = None,
+               first_column: int = 1) -> LongTable:
+    """Header via openpyxl, one template row for the styles (holding the first row's values,
+    so widths fit them); rows written by :func:`write_long_tables` after saving.
 
     ``formats`` overrides the fitted number format of the columns it names; ``fit`` sets the
     column widths from the headers and texts and a three-line header row; ``float_digits``
-    (e.g. 16, as openpyxl writes numbers) rounds the floats written, which are otherwise exact.
+    (e.g. 16, as openpyxl writes numbers) rounds the floats written, which are otherwise exact;
+    ``first_column`` (1-based) is where the table starts. The table is registered on the sheet
+    (:func:`sheet_long_tables`) and returned.
     """
-    header_row(ws, header_row_number, list(frame.columns))
+    header_row(ws, header_row_number, list(frame.columns), first_column)
     table = LongTable(ws, header_row_number + 1, nrows=len(frame), float_digits=float_digits)
-    for j, name in enumerate(frame.columns, start=1):
+    for j, name in enumerate(frame.columns, start=first_column):
         values = frame[name].to_numpy()
         kind, fmt = _column_kind(str(name), values)
         if formats and name in formats:
             fmt = formats[name]
-        tmpl = ws.cell(row=header_row_number + 1, column=j, value=0)
+        first = values[0] if len(values) and kind != "str" else 0
+        tmpl = ws.cell(row=header_row_number + 1, column=j, value=cell_value(first))
         if fmt != "General":
             tmpl.number_format = fmt
         if kind == "bool":
@@ -858,6 +903,7 @@ def long_table(ws, frame, header_row_number: int, formats: dict[str, str] | None
                                                                                   values)
     if fit:
         ws.row_dimensions[header_row_number].height = 45
+    sheet_long_tables(ws).append(table)
     return table
 
 
@@ -882,55 +928,126 @@ def _long_column_width(name, kind: str, values) -> float:
 
 
 def save_workbook(wb, path: pathlib.Path, tables: Sequence[LongTable] = ()) -> None:
-    """Save ``wb`` to ``path`` and write the rows of its long tables into it.
+    """Save ``wb`` to ``path`` and write the rows of its long tables into it (those given and
+    those registered on its sheets).
 
     Every sheet must come from :func:`new_sheet` (:func:`check_sheets`). ``path`` is
     normally the temporary file of :mod:`similitude.report.atomic`; no other file is made.
     """
     check_sheets(wb)
     wb.save(path)
-    if tables:
-        write_long_tables(path, wb, list(tables))
+    write_long_tables(path, wb, list(tables))
 
 
 def write_long_tables(path: pathlib.Path, wb, tables: list[LongTable]) -> None:
-    """Replace the template rows of the long tables with all their rows, in the saved file.
+    """Write the rows of the long tables into the saved file (those given and those
+    registered on the workbook's sheets), merged with the cells openpyxl wrote in their rows.
 
     The file is rewritten in place from a copy of its package in memory (small: the long
-    tables hold one template row each until now), so no second file is made beside it.
+    tables hold one template row each until now), so no second file is made beside it; the
+    rows are generated and compressed :data:`CHUNK_ROWS` at a time.
     """
-    by_part = {f"xl/worksheets/sheet{wb.worksheets.index(t.sheet) + 1}.xml": t for t in tables}
+    by_part: dict[str, list[LongTable]] = {}
+    for t in [*tables, *(t for ws in wb.worksheets for t in sheet_long_tables(ws))]:
+        part = f"xl/worksheets/sheet{wb.worksheets.index(t.sheet) + 1}.xml"
+        if not any(t is other for other in by_part.get(part, ())):
+            by_part.setdefault(part, []).append(t)
+    if not by_part:
+        return
     package = io.BytesIO(pathlib.Path(path).read_bytes())
     with zipfile.ZipFile(package) as zin, zipfile.ZipFile(path, "w", zipfile.ZIP_DEFLATED,
                                                           compresslevel=1) as zout:
         for item in zin.infolist():
             data = zin.read(item.filename)
-            t = by_part.get(item.filename)
-            if t is not None:
-                data = _with_rows(data.decode("utf-8"), t, item.filename).encode("utf-8")
-            zout.writestr(item, data)
+            if item.filename not in by_part:
+                zout.writestr(item, data)
+                continue
+            with zout.open(item.filename, "w") as out:
+                for piece in _sheet_with_rows(data.decode("utf-8"), by_part[item.filename]):
+                    out.write(piece.encode("utf-8"))
 
 
-def _with_rows(xml: str, t: LongTable, part: str) -> str:
-    """The sheet XML with the template row and what follows replaced by the table's rows."""
-    start = xml.find(f'<row r="{t.first_row}"')
-    end = xml.find("</sheetData>")
-    if start < 0 or end < 0:
-        raise RuntimeError(f"workbook: template row {t.first_row} not found in {part}")
-    xml = xml[:start] + _rows_xml(t) + xml[end:]
-    last = get_column_letter(t.sheet.max_column)
-    return re.sub(r'<dimension ref="[^"]*"\s*/>',
-                  f'<dimension ref="A1:{last}{t.first_row + t.nrows - 1}"/>', xml, count=1)
+_ROW = re.compile(r'<row r="(\d+)"([^>]*?)(/>|>(.*?)</row>)', re.S)
+_CELL = re.compile(r'<c r="([A-Z]+)\d+"[^>]*?(?:/>|>.*?</c>)', re.S)
 
 
-def _rows_xml(table: LongTable) -> str:
-    rows = range(table.first_row, table.first_row + table.nrows)
-    digits = table.float_digits
-    float_text = repr if digits is None else (lambda v: f"{v:.{digits}g}")
-    cols = [_cell_xml(letter, kind, style, data, rows, float_text)
-            for letter, kind, style, data in table.columns]
-    return "".join(f'<row r="{r}">' + "".join(cells) + "</row>"
-                   for r, cells in zip(rows, zip(*cols, strict=True), strict=True))
+def _sheet_with_rows(xml: str, tables: list[LongTable]):
+    """Pieces of the sheet XML with the tables' rows merged in (a generator)."""
+    start = xml.find("<sheetData")
+    open_end = xml.index(">", start) + 1
+    if xml[open_end - 2] == "/":  # <sheetData/>: openpyxl wrote no row
+        head, body, tail = xml[:start] + "<sheetData>", "", "</sheetData>" + xml[open_end:]
+    else:
+        close = xml.index("</sheetData>", open_end)
+        head, body, tail = xml[:open_end], xml[open_end:close], xml[close:]
+    cut = min(t.first_row for t in tables)
+    kept, extras, attrs = [], {}, {}
+    for m in _ROW.finditer(body):
+        r = int(m.group(1))
+        if r < cut:
+            kept.append(m.group(0))
+            continue
+        attrs[r] = m.group(2)
+        extras[r] = {column_index_from_string(c.group(1)): c.group(0)
+                     for c in _CELL.finditer(m.group(4) or "")}
+    last = max([t.last_row for t in tables] + list(extras))
+    width = max([column_index_from_string(c[0]) for t in tables for c in t.columns]
+                + [max(cells) for cells in extras.values() if cells])
+    yield _with_dimension(head, get_column_letter(width), last)
+    yield "".join(kept)
+    tables = sorted(tables, key=lambda t: column_index_from_string(t.columns[0][0]))
+    spans = [(t, {column_index_from_string(c[0]) for c in t.columns}) for t in tables]
+    for a in range(cut, last + 1, CHUNK_ROWS):
+        b = min(a + CHUNK_ROWS, last + 1)
+        yield _rows_between(a, b, spans, extras, attrs)
+    yield tail
+
+
+def _with_dimension(head: str, last_column: str, last_row: int) -> str:
+    return re.sub(r'<dimension ref="[^"]*"\s*/>', f'<dimension ref="A1:{last_column}{last_row}"/>',
+                  head, count=1)
+
+
+def _rows_between(a: int, b: int, spans, extras: dict, attrs: dict) -> str:
+    """The XML of rows a to b - 1: the tables' cells and the cells openpyxl wrote there."""
+    parts: dict[int, list[str]] = {}
+    covered: dict[int, set[int]] = {}
+    for t, cols in spans:
+        lo, hi = max(a, t.first_row), min(b, t.last_row + 1)
+        if lo >= hi:
+            continue
+        rows = range(lo, hi)
+        offset = lo - t.first_row
+        digits = t.float_digits
+        float_text = repr if digits is None else (lambda v, d=digits: f"{v:.{d}g}")
+        cells = [_cell_xml(letter, kind, style,
+                           data if kind == "formula" else data[offset:offset + len(rows)],
+                           rows, float_text)
+                 for letter, kind, style, data in t.columns]
+        for r, row_cells in zip(rows, zip(*cells, strict=True), strict=True):
+            parts.setdefault(r, []).append("".join(row_cells))
+            covered.setdefault(r, set()).update(cols)
+    out = []
+    for r in range(a, b):
+        own = extras.get(r)
+        if r not in parts and own is None:
+            continue
+        text = "".join(parts.get(r, ()))
+        if own:
+            cover = covered.get(r, set())
+            rest = {c: x for c, x in own.items() if c not in cover}
+            if rest:
+                text = _merge_cells(text, rest)
+        out.append(f'<row r="{r}"{attrs.get(r, "")}>{text}</row>')
+    return "".join(out)
+
+
+def _merge_cells(table_text: str, rest: dict[int, str]) -> str:
+    """The cells of a row in column order: a table's cells and the others of the row."""
+    cells = {column_index_from_string(m.group(1)): m.group(0)
+             for m in _CELL.finditer(table_text)}
+    cells.update(rest)
+    return "".join(cells[c] for c in sorted(cells))
 
 
 def _cell_xml(letter: str, kind: str, style: int, data, rows: range,
@@ -954,8 +1071,8 @@ def _cell_xml(letter: str, kind: str, style: int, data, rows: range,
         if v is None or (isinstance(v, float) and not math.isfinite(v)) or v == "":
             out.append("")
         else:
-            out.append(f'<c r="{letter}{r}"{s} t="inlineStr"><is><t>{_escape(safe_text(v))}'
-                       "</t></is></c>")
+            out.append(f'<c r="{letter}{r}"{s} t="inlineStr"><is><t xml:space="preserve">'
+                       f"{_escape(safe_text(v))}</t></is></c>")
     return out
 
 

@@ -216,10 +216,10 @@ def test_write_interrupted_while_completing_the_long_tables_leaves_no_file(plan,
                                                                            monkeypatch):
     path = tmp_path / "interrupted2.xlsx"
 
-    def broken_rows(table):
+    def broken_rows(*args):
         raise KeyboardInterrupt
 
-    monkeypatch.setattr(sheets, "_rows_xml", broken_rows)
+    monkeypatch.setattr(sheets, "_rows_between", broken_rows)
     with pytest.raises(KeyboardInterrupt):
         plan_workbook.write_plan(plan, path)
     assert list(tmp_path.iterdir()) == []

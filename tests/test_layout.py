@@ -25,7 +25,7 @@ PACKAGES = ("fluids_props", "similitude")
 STAGES = {
     "fluids_props": 0,
     "similitude.units": 1, "similitude.errors": 1, "similitude.constants": 1,
-    "similitude.plain_data": 1, "similitude.cautions": 1,
+    "similitude.plain_data": 1, "similitude.cautions": 1, "similitude.labels": 1,
     "similitude.dimensional": 2,
     "similitude.correlations": 3,
     "similitude.prediction": 4,

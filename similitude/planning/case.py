@@ -97,6 +97,9 @@ SPEED_BASES = ("prototype", "froude", "model")
 #: Orders of the runs within a group of one loading, wave and heading: ascending speed, or
 #: shuffled with a seed (speeds and repeats together).
 SPEED_ORDERS = ("ascending", "random")
+#: Angles a run matrix may sweep at each speed (wind tunnel, or a towed body): the angle of
+#: attack of a wing or body, or the yaw (drift) angle; the matrix column each one heads.
+SWEEPS = {"angle_of_attack": "angle of attack [deg]", "yaw": "yaw angle [deg]"}
 
 #: Kinds of wave condition: regular waves, or an irregular sea given by its spectrum.
 WAVE_KINDS = ("regular", "irregular")
@@ -458,6 +461,10 @@ class MatrixSpec:
     wave_calibration : bool
         Measure each wave condition without the model before its first run (its time is
         counted in the facility hours).
+    angles : tuple of float
+        Angles [deg] swept at each speed (a polar), innermost in the run order; empty: none.
+    sweep : str
+        What ``angles`` are, a key of :data:`SWEEPS`: ``"angle_of_attack"`` or ``"yaw"``.
     """
 
     speeds: tuple[float, ...] = ()
@@ -471,6 +478,8 @@ class MatrixSpec:
     speed_order: str = "ascending"
     seed: int = 1
     wave_calibration: bool = True
+    angles: tuple[float, ...] = ()
+    sweep: str = "angle_of_attack"
 
     def __post_init__(self) -> None:
         try:
@@ -491,6 +500,13 @@ class MatrixSpec:
         if self.speed_order not in SPEED_ORDERS:
             raise InputError(f"matrix.speed_order: {self.speed_order!r} is unknown; expected "
                              "one of " + ", ".join(SPEED_ORDERS))
+        if self.sweep not in SWEEPS:
+            raise InputError(f"matrix.sweep: {self.sweep!r} is unknown; expected one of "
+                             + ", ".join(SWEEPS))
+        for i, a in enumerate(self.angles):
+            if not (isinstance(a, (int, float)) and math.isfinite(a) and -180 <= a <= 180):
+                raise InputError(f"matrix.angles[{i}]: {a!r} is not valid; expected an angle "
+                                 "from -180 to 180 deg")
         if isinstance(self.seed, bool) or not isinstance(self.seed, int) or self.seed < 0:
             raise InputError(f"matrix.seed: {self.seed!r} is not valid; expected a whole "
                              "number >= 0")

@@ -45,7 +45,7 @@ from similitude.constants import G0
 from similitude.correlations import waves
 from similitude.dimensional.numbers import blade_reynolds, blade_section_speed, froude, reynolds
 from similitude.errors import InputError
-from similitude.planning.case import Case, body_class
+from similitude.planning.case import SWEEPS, Case, body_class
 from similitude.planning.solution import Solution
 
 #: Defaults used where the case is silent (common practice, from memory; see module notes).
@@ -111,8 +111,8 @@ def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
     loads = list(spec.loading) or [None]
     heads = list(spec.headings) or [math.nan]
     wave_rows = _wave_table(case)
-    i_l, i_w, i_h, i_r, i_s = _run_order(spec, vp_s, len(loads), len(heads),
-                                         len(wave_rows or [None]), notes)
+    i_l, i_w, i_h, i_r, i_s, i_a = _run_order(spec, vp_s, len(loads), len(heads),
+                                              len(wave_rows or [None]), notes)
     n = i_s.size
 
     cols: dict[str, object] = {}
@@ -126,6 +126,8 @@ def matrix_columns(case: Case, solution: Solution) -> tuple[dict, list[str]]:
     heading = np.asarray(heads, dtype=float)[i_h]
     if spec.headings or wave_rows:  # no heading column where nothing has a heading
         cols["heading [deg]"] = heading
+    if spec.angles:
+        cols[SWEEPS[spec.sweep]] = np.asarray(spec.angles, dtype=float)[i_a]
     cols.update(_speed_columns(case, solution, vp_s[i_s], vm_s[i_s],
                                None if np_s is None else np_s[i_s]))
     if spec.loading:
@@ -170,26 +172,26 @@ def build_matrix(case: Case, solution: Solution) -> pd.DataFrame:
 
 
 def _run_order(spec, vp, n_load: int, n_head: int, n_wave: int, notes: list[str]):
-    """Indices (loading, wave, heading, repeat, speed) of each run, in the order run.
+    """Indices (loading, wave, heading, repeat, speed, angle) of each run, in the order run.
 
     Runs are grouped by loading condition (a change of ballast takes time), then by wave
     condition and heading; within a group the speeds run in ascending order, each repeat
-    running the series again, or in a random order of the group's runs drawn with the
-    case's seed.
+    running the series again (and the angles of a sweep at each speed), or in a random order
+    of the group's runs drawn with the case's seed.
     """
     by_speed = np.argsort(np.asarray(vp, dtype=float), kind="stable")
-    shape = (n_load, n_wave, n_head, int(spec.repeats), len(vp))
-    i_l, i_w, i_h, i_r, k = np.indices(shape).reshape(5, -1)
+    shape = (n_load, n_wave, n_head, int(spec.repeats), len(vp), max(1, len(spec.angles)))
+    i_l, i_w, i_h, i_r, k, i_a = np.indices(shape).reshape(6, -1)
     i_s = by_speed[k]
     if spec.speed_order == "random":
-        group = len(vp) * int(spec.repeats)
+        group = len(vp) * int(spec.repeats) * max(1, len(spec.angles))
         rng = np.random.default_rng(spec.seed)
         order = np.concatenate([g * group + rng.permutation(group)
                                 for g in range(i_s.size // group)])
-        i_r, i_s = i_r[order], i_s[order]
+        i_r, i_s, i_a = i_r[order], i_s[order], i_a[order]
         notes.append(f"runs of each loading, wave and heading in a random order (seed "
                      f"{spec.seed})")
-    return i_l, i_w, i_h, i_r, i_s
+    return i_l, i_w, i_h, i_r, i_s, i_a
 
 
 def _changeover_column(case: Case, i_l, notes: list[str]):

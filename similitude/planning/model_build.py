@@ -29,7 +29,7 @@ import numpy as np
 
 from fluids_props import FluidState
 from similitude.errors import InputError
-from similitude.planning.case import Case, LoadingCondition
+from similitude.planning.case import HULL_KINDS, Case, LoadingCondition
 
 #: How each quantity of a loading scales with lambda (Froude): (power of lambda, unit, label).
 #: A model value is the prototype value / lambda**power.
@@ -47,8 +47,6 @@ SCALED_QUANTITIES = {
     "roll_period": (0.5, "s", "natural period, roll"),
     "pitch_period": (0.5, "s", "natural period, pitch"),
 }
-#: Prototype kinds a model shop builds as a hull (mass, draughts, stimulators apply).
-HULL_KINDS = ("surface_ship", "submerged_body", "offshore_structure")
 
 # Turbulence stimulators [3]: Hughes & Allan's cylindrical studs, 3.2 mm diameter, 2.5 mm
 # high, 25 mm apart, at 5 % of L_PP aft of the forward perpendicular (station 19 of 20);
@@ -170,7 +168,7 @@ class ModelBuild:
             for key, (power, unit, label) in SCALED_QUANTITIES.items():
                 if key in ld.prototype:
                     rows.append((ld.name, label, unit, ld.prototype[key], ld.model[key],
-                                 _law(power)))
+                                 scaling_law(power)))
             if ld.model_mass is not None:
                 rows.append((ld.name, "mass", "kg", ld.prototype_mass, ld.model_mass,
                              f"rho_m/rho_p / lambda^3 ({self.model_water})"))
@@ -238,9 +236,9 @@ def model_build(case: Case, scale: float, model_fluid: FluidState,
                       stimulators=stimulators, propeller_diameter=prop_d, notes=notes)
 
 
-def _law(power: float) -> str:
-    return "1/lambda" if power == 1 else (
-        "1/sqrt(lambda)" if power == 0.5 else f"1/lambda^{power:g}")
+def scaling_law(power: float) -> str:
+    """The Froude scaling of a quantity in words: "1/lambda", "1/sqrt(lambda)", ..."""
+    return {1.0: "1/lambda", 0.5: "1/sqrt(lambda)"}.get(power, f"1/lambda^{power:g}")
 
 
 def _loading_build(ld: LoadingCondition, case: Case, lam: float, rho_m: float,
@@ -294,7 +292,7 @@ def _notes(case: Case, builds, stimulators, prop_d) -> tuple[str, ...]:
                    + ": give runs.loading.displacement (or prototype.sizes.displacement) for "
                    "its model mass.")
     if any(b.prototype.get("gm") is not None for b in builds):
-        out.append("Ballast the model to its GM within 2 % or 1 mm, whichever is larger "
+        out.append("Ballast the model to its GM within 2 % or 1 mm "
                    "(IMO MSC.1/Circ.1200 (2006) 4.3, for roll tests); check it by an "
                    "inclining test and the roll radius by a swing or roll-decay test.")
     if case.test == "seakeeping" and builds and not any(
@@ -318,5 +316,5 @@ def _notes(case: Case, builds, stimulators, prop_d) -> tuple[str, ...]:
     return tuple(out)
 
 
-__all__ = ["HULL_KINDS", "SCALED_QUANTITIES", "LoadingBuild", "ModelBuild", "Stimulator",
-           "model_build"]
+__all__ = ["SCALED_QUANTITIES", "LoadingBuild", "ModelBuild", "Stimulator", "model_build",
+           "scaling_law"]

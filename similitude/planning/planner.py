@@ -34,6 +34,7 @@ from similitude.correlations.friction import turbulence_stimulation_advice
 from similitude.dimensional import scaling
 from similitude.dimensional.numbers import cavitation_number
 from similitude.errors import InputError
+from similitude.labels import human
 from similitude.plain_data import plain
 from similitude.planning.candidates import (
     CAVITATION_ON_ADVANCE,
@@ -306,12 +307,12 @@ class Plan:
             p = float(mf.pressure_si)
         tp = float(self.prototype_fluid.temperature_si)
         return [
-            f"Plan '{c.name}': {c.prototype.name} ({c.prototype.kind}, L = "
-            f"{c.prototype.length:.4g} m) in {c.facility.name} ({c.facility.kind})",
+            f"Plan '{c.name}': {c.prototype.name} ({human(c.prototype.kind)}, L = "
+            f"{c.prototype.length:.4g} m) in {c.facility.name} ({human(c.facility.kind)})",
             f"  scale {format_scale(self.scale)}; model length {self.model_length:.4g} m"
             + (f" (limiting scale {format_scale(self.limiting_scale, 6)})"
                if self.limiting_scale != self.scale else ""),
-            f"  model fluid {mf.fluid} at {t - 273.15:.2f} degC, {p / 1000:.6g} kPa "
+            f"  model fluid {human(mf.fluid)} at {t - 273.15:.2f} degC, {p / 1000:.6g} kPa "
             f"(nu = {float(mf.kinematic_viscosity_si):.4g} m^2/s); prototype "
             f"{self.prototype_fluid.fluid} at {tp - 273.15:.2f} degC",
             *([f"  pressures: {self.model_pressure_text()}"] if self.model_pressures else []),
@@ -583,8 +584,8 @@ def _notes(case: Case, sol: Solution, checks) -> list[str]:
     out = []
     mf = sol.model_fluid
     out.append(
-        f"Model fluid chosen: {mf.fluid} at {float(mf.temperature_si) - 273.15:.2f} degC "
-        f"(objective '{sol.objective}'); the scale is set by: {sol.binding}."
+        f"Model fluid chosen: {human(mf.fluid)} at {float(mf.temperature_si) - 273.15:.2f} "
+        f"degC (objective: {human(sol.objective)}); the scale is set by: {sol.binding}."
     )
     if sol.exact:
         out.append("Exact groups (" + ", ".join(sol.exact) + ") hold to 1e-9 relative at every "

@@ -46,6 +46,7 @@ from similitude.planning.case import (
     PROTOTYPE_KINDS,
     SPEED_BASES,
     SPEED_ORDERS,
+    SWEEPS,
     TEST_FACILITIES,
     TEST_KINDS,
     WAVE_KINDS,
@@ -142,7 +143,7 @@ FACILITY_KEYS = ("file", "kind", "name", "length", "width", "depth", "height", "
 MATCHING_KEYS = ("exact", "report", "scale", "model_length", "choose", "friction_line",
                  "form_factor", "model_fluid", "round_scale", "relax")
 RUNS_KEYS = ("speeds", "speeds_as", "repeats", "headings", "current", "wait_between_runs",
-             "order", "seed", "wave_calibration", "loading", "waves")
+             "order", "seed", "wave_calibration", "sweep", "angles", "loading", "waves")
 LOADING_KEYS = ("name", "draught", "trim", "displacement", *MASS_PROPERTY_KEYS)
 WAVE_KEYS = ("name", "kind", "period", "length_ratio", "height", "steepness",
              "significant_height", "peak_period", "spectrum", "gamma", "duration")
@@ -490,6 +491,12 @@ def _read_runs(r: FieldReader, data: Any) -> MatrixSpec | None:
     kw["speed_order"] = r.choice(t, "order", path, SPEED_ORDERS, "ascending") or "ascending"
     kw["seed"] = r.integer(t, "seed", path, 0, 2**32 - 1, 1)
     kw["wave_calibration"] = r.flag(t, "wave_calibration", path, True)
+    kw["sweep"] = r.choice(t, "sweep", path, tuple(SWEEPS), "angle_of_attack") or \
+        "angle_of_attack"
+    angles = r.quantities(t, "angles", path, RATIO, _LIMITS["heading"], strict_low=False,
+                          bare_unit="degree")
+    if angles is not None:
+        kw["angles"] = angles
     ok = True
     for key, reader in (("loading", _read_loading), ("waves", _read_wave)):
         if key not in t:

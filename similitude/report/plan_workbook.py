@@ -38,6 +38,7 @@ from fluids_props import FluidState, get_fluid
 from similitude.cautions import plan_caution
 from similitude.correlations.friction import friction_coefficient
 from similitude.correlations.propeller_scaling import blade_drag_full_scale, blade_drag_model
+from similitude.labels import human
 from similitude.planning.case import body_class
 from similitude.planning.findings import (
     STATUS_COLOURS,
@@ -54,11 +55,16 @@ from similitude.planning.matrix import (
 from similitude.planning.planner import Plan
 from similitude.report import formulas
 from similitude.report.atomic import OutputSet, check_target, signals_cleanup
+from similitude.report.build_sheets import RUN_SHEET_HEADER_ROW, model_build_sheet, run_sheet_sheet
 from similitude.report.page import PageSetup
 from similitude.report.sheets import (
     BOLD,
+    BOOLEAN_FORMAT,
+    CENTER,
     INPUT_FILL,
     TITLE_FONT,
+    TOP,
+    WRAP,
     LongTable,
     add_series,
     cell_value,
@@ -69,6 +75,7 @@ from similitude.report.sheets import (
     header_row,
     label_row,
     long_table,
+    merge_text,
     new_sheet,
     new_workbook,
     number_format,
@@ -84,8 +91,8 @@ from similitude.report.sheets import (
 )
 from similitude.units import format_scale
 
-SHEET_NAMES = ("Overview", "Similarity", "Facility checks", "Runs", "Scaling", "Fluids",
-               "Test day", "Charts", "Basis")
+SHEET_NAMES = ("Overview", "Run sheet", "Model build", "Similarity", "Facility checks", "Runs",
+               "Scaling", "Fluids", "Test day", "Charts", "Basis")
 
 
 #: Cells of the Test day sheet (fixed, so users and tests can find them).
@@ -101,6 +108,8 @@ SURFACE_TENSION_CELL = "B13"
 LENGTH_CELL = "B14"
 RANGE_CHECK_CELL = "B15"
 TEST_DAY_HEADER_ROW = 18
+#: Width [characters] of the Test day sheet's label column (the labels wrap in it).
+TEST_DAY_LABEL_WIDTH = 30
 #: Sheet with the tabulated properties of a model fluid without closed-form formulas.
 PROPERTY_TABLE_SHEET = "Property table"
 PROPERTY_TABLE_STEP = 0.05  # [K]
@@ -141,10 +150,13 @@ TEST_DAY_PROPERTY_CELLS = {
 #: :data:`similitude.planning.findings.STATUS_COLOURS` (the notebook view uses the same).
 STATUS_FILLS = {status: PatternFill("solid", fgColor=colour)
                 for status, colour in STATUS_COLOURS.items()}
+#: Widths [characters] of the wrapped text columns of the Facility checks sheet: check, source
+#: and advice (the sheet then prints one landscape page wide at a readable size).
+CHECK_TEXT_WIDTHS = {"A": 22, "H": 24, "I": 38}
 #: Header row repeated on every printed page, by sheet (the Overview has none).
-PRINT_TITLE_ROWS = {"Similarity": 1, "Facility checks": 1, "Runs": 1, "Scaling": 1,
-                    "Fluids": 1, "Test day": TEST_DAY_HEADER_ROW, "Charts": 1, "Basis": 1,
-                    PROPERTY_TABLE_SHEET: 1}
+PRINT_TITLE_ROWS = {"Run sheet": RUN_SHEET_HEADER_ROW, "Similarity": 1, "Facility checks": 1,
+                    "Runs": 1, "Scaling": 1, "Fluids": 1, "Test day": TEST_DAY_HEADER_ROW,
+                    "Charts": 1, "Basis": 1, PROPERTY_TABLE_SHEET: 1}
 
 
 # -- the workbook ---------------------------------------------------------------------------
@@ -184,6 +196,8 @@ def add_plan_sheets(wb: Workbook, plan: Plan, prefix: str = "", paper: str = "A4
     view = _PrefixedWorkbook(wb, prefix)
     first = len(wb.worksheets)
     _sheet_overview(view, plan)
+    run_sheet_sheet(view.create_sheet(SHEET_NAMES[1]), plan)
+    model_build_sheet(view.create_sheet(SHEET_NAMES[2]), plan)
     _sheet_similarity(view, plan)
     _sheet_checks(view, plan)
     tables = [_sheet_runs(view, plan)]
@@ -261,6 +275,9 @@ def _sheet_overview(wb, plan: Plan) -> None:
     r = _overview_unmatched_rows(ws, plan, 2)
     r = _overview_case_rows(ws, plan, r + 1)
     r = _overview_design_rows(ws, plan, r)
+    # long values wrap in their column instead of running on past the printed page
+    wrap_rows(ws, [row for row in range(3, r) if isinstance(ws.cell(row=row, column=2).value,
+                                                            str)], (1, 2))
     _overview_cautions(ws, plan_caution(plan.case.facility.kind), plan.notes, r + 1)
     ws.freeze_panes = "A2"
 
@@ -285,9 +302,9 @@ def _overview_case_rows(ws, plan: Plan, r: int) -> int:
     for key, value in case.metadata.items():
         r = label_row(ws, r, str(key), str(value))
     proto, fac = case.prototype, case.facility
-    r = label_row(ws, r, "prototype", f"{proto.name} ({proto.kind})")
+    r = label_row(ws, r, "prototype", f"{proto.name} ({human(proto.kind)})")
     r = label_row(ws, r, "prototype length [m]", proto.length, "0.000")
-    r = label_row(ws, r, "facility", f"{fac.name} ({fac.kind}, {fac.length:g} m x "
+    r = label_row(ws, r, "facility", f"{fac.name} ({human(fac.kind)}, {fac.length:g} m x "
                   f"{fac.width:g} m x {fac.depth:g} m)")
     r = label_row(ws, r, "scale", format_scale(plan.scale))
     r = label_row(ws, r, "scale ratio lambda [-]", plan.scale, "0.000")
@@ -296,12 +313,12 @@ def _overview_case_rows(ws, plan: Plan, r: int) -> int:
                       ("model fluid", plan.model_fluid)):
         t = float(np.asarray(fs.temperature_si)) - 273.15
         p = float(np.asarray(fs.pressure_si))
-        r = label_row(ws, r, label, f"{fs.fluid} at {t:.2f} degC, {p / 1e3:.4g} kPa")
+        r = label_row(ws, r, label, f"{human(fs.fluid)} at {t:.2f} degC, {p / 1e3:.4g} kPa")
     for label, pa in plan.model_pressures.items():
         r = label_row(ws, r, f"{label} [kPa]", pa / 1e3, "0.000")
     r = label_row(ws, r, "binding constraint", plan.binding_constraint)
     exact = plan.solution.exact or case.request.exact
-    r = label_row(ws, r, "groups matched exactly", ", ".join(exact))
+    r = label_row(ws, r, "groups matched exactly", ", ".join(map(human, exact)))
     r = label_row(ws, r, "facility checks", checks_summary(plan.checks)
                   + " (see the Facility checks sheet)")
     r = label_row(ws, r, "test conditions (rows of the Runs sheet) [-]", len(plan.matrix), "0")
@@ -342,37 +359,70 @@ def _overview_cautions(ws, caution: str, notes, r: int) -> None:
 
 # -- Similarity -----------------------------------------------------------------------------
 def _sheet_similarity(wb, plan: Plan) -> None:
-    ws = wb.create_sheet(SHEET_NAMES[1])
-    g = plan.groups
+    """Each group at each speed; under it each unmatched group, its values in the same
+    columns and its consequence and figures in full-width rows (one layout, no gaps)."""
+    ws = wb.create_sheet(SHEET_NAMES[3])
+    g = _groups_frame(plan)
     _, last = write_frame(ws, g, 1, 1)
     _group_value_formats(ws, g, 1)
     if len(g):
         ws.auto_filter.ref = table_range(1, len(g.columns), last)
     ws.freeze_panes = "A2"
-    r = last + 3
-    ws.cell(row=r - 1, column=1, value="Unmatched groups at the design speed (conflicts)"
+    set_widths(ws, {"A": 30})
+    for r in range(2, last + 1):
+        ws.cell(row=r, column=1).alignment = WRAP
+    fit_widths(ws, rows=range(1, last + 1))
+    set_widths(ws, {"A": min(ws.column_dimensions["A"].width, 30)})
+    wrap_rows(ws, range(2, last + 1), (1,))
+    fit_row_height(ws, 1)
+    _similarity_conflicts(ws, plan, g, last + 2)
+
+
+def _groups_frame(plan: Plan) -> pd.DataFrame:
+    """The groups table as the sheet shows it: speeds in the user's unit, no internal key."""
+    g = plan.groups.drop(columns=["key"])
+    case = plan.case
+    speed = g.pop("prototype speed [m/s]") / case.speed_unit_factor
+    g.insert(2, case.speed_header, speed)
+    return g
+
+
+def _similarity_conflicts(ws, plan: Plan, groups, r: int) -> None:
+    """The unmatched groups at the design speed: a row of values under the groups table's
+    headers, then the consequence and the figures behind it over the table's width."""
+    ncol = len(groups.columns)
+    ws.cell(row=r, column=1, value="Unmatched groups at the design speed: what they cost"
             ).font = BOLD
-    _, cl = write_frame(ws, _conflicts_frame(plan.conflicts), r, 1)
-    for i, c in enumerate(plan.conflicts):
-        for col in (2, 3):
-            cell = ws.cell(row=r + 1 + i, column=col)
-            if isinstance(cell.value, float):
-                cell.number_format = value_format(f"{c.group} number", cell.value)
-    fit_widths(ws)
-    set_widths(ws, {"E": 50, "F": 45})
-    wrap_rows(ws, range(r + 1, cl + 1), (5, 6))
-    for header in (1, r):
-        fit_row_height(ws, header)
-
-
-def _conflicts_frame(conflicts) -> pd.DataFrame:
-    rows = [{"group": c.group, "prototype value": c.prototype_value,
-             "model value": c.model_value, "ratio prototype/model [-]": c.ratio,
-             "consequence": c.consequence,
-             "details": "; ".join(f"{k} = {_detail_text(v)}" for k, v in c.details.items())}
-            for c in conflicts]
-    return pd.DataFrame(rows, columns=["group", "prototype value", "model value",
-                                       "ratio prototype/model [-]", "consequence", "details"])
+    r += 1
+    heads = list(groups.columns)
+    design = plan.speeds["prototype speed [m/s]"].max() / plan.case.speed_unit_factor
+    for c in plan.conflicts:
+        row = plan.groups[(plan.groups["key"] == c.group)]
+        name, symbol = (row["group"].iloc[0], row["symbol"].iloc[0]) if len(row) else (
+            human(c.group), "")
+        values = {"group": name, "symbol": symbol, heads[2]: design,
+                  "prototype value": c.prototype_value, "model value": c.model_value,
+                  "ratio": c.ratio, "matched": False}
+        for j, h in enumerate(heads, 1):
+            if h in values:
+                cell = ws.cell(row=r, column=j, value=cell_value(values[h]))
+                if isinstance(cell.value, bool):
+                    cell.number_format, cell.alignment = BOOLEAN_FORMAT, CENTER
+                elif isinstance(cell.value, float):
+                    cell.number_format = (value_format(f"{c.group} number", cell.value)
+                                          if h.endswith("value") else
+                                          number_format(h, np.array([cell.value])))
+        ws.cell(row=r, column=1).font = BOLD
+        ws.cell(row=r, column=1).alignment = WRAP
+        fit_row_height(ws, r)
+        details = "; ".join(f"{k} = {_detail_text(v)}" for k, v in c.details.items())
+        for label, text in (("consequence", c.consequence), ("figures", details)):
+            if text:
+                r += 1
+                ws.cell(row=r, column=1, value=label).alignment = TOP
+                ws.cell(row=r, column=2, value=text)
+                merge_text(ws, r, 2, ncol)
+        r += 2
 
 
 def _detail_text(v) -> str:
@@ -394,7 +444,7 @@ def _group_value_formats(ws, groups, header: int) -> None:
 
 # -- Facility checks, Runs, Scaling, Fluids -------------------------------------------------
 def _sheet_checks(wb, plan: Plan) -> None:
-    ws = wb.create_sheet(SHEET_NAMES[2])
+    ws = wb.create_sheet(SHEET_NAMES[4])
     df = checks_table(plan.checks).rename(columns={"value": "model value", "kind": "limit kind"})
     df = df[["check", "model value", "limit", "unit", "limit kind", "margin [-]", "status",
              "source", "advice"]]
@@ -408,26 +458,30 @@ def _sheet_checks(wb, plan: Plan) -> None:
                 cell.number_format = value_format("", cell.value)
     ws.auto_filter.ref = f"A1:I{max(last, 1)}"
     ws.freeze_panes = "A2"
-    fit_widths(ws)
-    set_widths(ws, {"I": 70})
+    fit_widths(ws, rows=range(1, last + 1))
+    set_widths(ws, CHECK_TEXT_WIDTHS)
     wrap_rows(ws, range(2, last + 1), (1, 8, 9))
     fit_row_height(ws, 1)
     ws.cell(row=last + 2, column=1, value="margin = (limit - value)/|limit| for a maximum, "
             "(value - limit)/|limit| for a minimum; negative when violated")
+    merge_text(ws, last + 2, 1, 9)
     _status_legend(ws, last + 4)
 
 
 def _status_legend(ws, r: int) -> None:
-    """Each status in its colour with what it means, from row ``r`` down."""
+    """Each status in its colour with what it means, from row ``r`` down (the meaning spread
+    over the table's width)."""
     ws.cell(row=r, column=1, value="status").font = BOLD
     ws.cell(row=r, column=2, value="meaning").font = BOLD
     for i, (status, meaning) in enumerate(STATUS_MEANINGS.items(), start=1):
-        ws.cell(row=r + i, column=1, value=status).fill = STATUS_FILLS[status]
+        c = ws.cell(row=r + i, column=1, value=status)
+        c.fill, c.alignment = STATUS_FILLS[status], TOP
         ws.cell(row=r + i, column=2, value=meaning)
+        merge_text(ws, r + i, 2, 9)
 
 
 def _sheet_runs(wb, plan: Plan) -> LongTable:
-    ws = wb.create_sheet(SHEET_NAMES[3])
+    ws = wb.create_sheet(SHEET_NAMES[5])
     m = plan.matrix
     table = long_table(ws, m, 1)
     ws.freeze_panes = "B2"
@@ -436,7 +490,7 @@ def _sheet_runs(wb, plan: Plan) -> LongTable:
 
 
 def _sheet_scaling(wb, plan: Plan) -> None:
-    ws = wb.create_sheet(SHEET_NAMES[4])
+    ws = wb.create_sheet(SHEET_NAMES[6])
     sf = plan.scale_factors
     if len(sf) == 0:
         ws.cell(row=1, column=1, value="no scale factors")
@@ -448,28 +502,32 @@ def _sheet_scaling(wb, plan: Plan) -> None:
         _worked_example(ws, factor_col, len(sf.columns) + 1, first, last)
     ws.auto_filter.ref = table_range(1, len(sf.columns), last)
     ws.freeze_panes = "A2"
-    fit_widths(ws)
+    fit_widths(ws, rows=range(1, last + 1))
     fit_row_height(ws, 1)
+    if factor_col is not None:
+        merge_text(ws, last + 2, 1, len(sf.columns) + 2)
 
 
 def _worked_example(ws, factor_col: int, col: int, first: int, last: int) -> None:
     """Yellow input cells (a model value) and their full-scale value = factor x model value."""
-    header_row(ws, 1, ["worked example: model value", "worked example: full-scale value "
-                       "(= factor x model value)"], col)
+    header_row(ws, 1, ["model value (enter)", "full-scale value (factor x model "
+                       "value)"], col)
     factor, model = get_column_letter(factor_col), get_column_letter(col)
     for r in range(first, last + 1):
         ws.cell(row=r, column=col, value=1.0).fill = INPUT_FILL
-        ws.cell(row=r, column=col + 1,
-                value=formula(f"{factor}{r}*{model}{r}")).number_format = (
-            "0.0000E+00")
+        # the factor's own format: the full-scale value of a model value of 1 is the factor
+        ws.cell(row=r, column=col + 1, value=formula(f"{factor}{r}*{model}{r}")
+                ).number_format = ws.cell(row=r, column=factor_col).number_format
     ws.cell(row=last + 2, column=1, value="Enter a model measurement in the yellow cells "
             "(in the model unit of that row); the next column gives its full-scale value.")
+    ws.cell(row=last + 2, column=1).alignment = WRAP
 
 
 def _sheet_fluids(wb, plan: Plan) -> None:
-    ws = wb.create_sheet(SHEET_NAMES[5])
+    ws = wb.create_sheet(SHEET_NAMES[7])
     p, m = plan.prototype_fluid, plan.model_fluid
-    header_row(ws, 1, ["property [unit]", f"prototype: {p.fluid}", f"model: {m.fluid}"])
+    header_row(ws, 1, ["property [unit]", f"prototype: {human(p.fluid)}",
+                       f"model: {human(m.fluid)}"])
     dp, dm = p.as_dict(), m.as_dict()
     r = 2
     for k in dict.fromkeys([*dp, *dm]):
@@ -511,7 +569,7 @@ def _sheet_test_day(wb, plan: Plan) -> list[LongTable]:
     Returns the long tables it leaves to write: the per-run table and, for a model fluid
     without closed-form formulas, the property table.
     """
-    ws = wb.create_sheet(SHEET_NAMES[6])
+    ws = wb.create_sheet(SHEET_NAMES[8])
     state = plan.model_fluid
     _test_day_inputs(ws, state, _TEST_DAY_WHAT[body_class(plan.case.prototype.kind)])
     valid, table = _test_day_properties(wb, ws, state)
@@ -670,7 +728,12 @@ def _test_day_runs(ws, plan: Plan) -> LongTable:
     ws.freeze_panes = f"A{TEST_DAY_HEADER_ROW + 1}"
     ws.auto_filter.ref = table_range(TEST_DAY_HEADER_ROW, len(df.columns),
                                      TEST_DAY_HEADER_ROW + len(df))
-    widen(ws, {"A": 44, "B": 16})
+    widen(ws, {"B": 16})
+    set_widths(ws, {"A": TEST_DAY_LABEL_WIDTH})
+    # the labels wrap in their narrower column
+    wrap_rows(ws, [r for r in range(3, TEST_DAY_HEADER_ROW - 1)
+                   if ws.cell(row=r, column=1).value is not None], (1,))
+    merge_text(ws, 2, 1, len(df.columns))
     return table
 
 
@@ -790,7 +853,7 @@ def _temperature_range(fluid: str):
 def _sheet_charts(wb, plan: Plan) -> None:
     """The speed table, the friction line under it (a hull: ITTC-1957; a propeller: the
     ITTC-78 blade-section drag; none for a wing or body), and the charts below both."""
-    ws = wb.create_sheet(SHEET_NAMES[7])
+    ws = wb.create_sheet(SHEET_NAMES[9])
     kind = body_class(plan.case.prototype.kind)
     n, re_m, re_p = _speed_table(ws, plan, kind)
     line_header = n + 4
@@ -890,10 +953,10 @@ def _friction_chart(ws, n: int, ng: int, header: int, kind: str):
 
 # -- Basis ----------------------------------------------------------------------------------
 def _sheet_basis(wb, plan: Plan) -> None:
-    ws = wb.create_sheet(SHEET_NAMES[8])
+    ws = wb.create_sheet(SHEET_NAMES[10])
     header_row(ws, 1, ["topic", "text"])
     rows = _basis_rows(plan)
-    set_widths(ws, {"A": 40, "B": 110})
+    set_widths(ws, {"A": 32, "B": 100})
     for i, (k, v) in enumerate(rows, start=2):
         ws.cell(row=i, column=1, value=k)
         ws.cell(row=i, column=2, value=v)

@@ -308,6 +308,10 @@ def _quantity_format(header: str) -> str | None:
         return "0.0"
     if "[kn]" in h:
         return "0.00"
+    if "[min]" in h or "[rpm]" in h:
+        return "0"
+    if "[degc]" in h:
+        return "0.0"
     if "margin" in h:
         return "0.0%"
     return None
@@ -475,6 +479,20 @@ def fit_row_height(ws, row: int) -> None:
         ws.row_dimensions[row].height = max(height, lines * LINE_HEIGHT)
 
 
+def merge_text(ws, row: int, first: int, last: int) -> None:
+    """Spread the text of cell (``row``, ``first``) over the columns ``first``..``last``:
+    merged, wrapped, aligned to the top, the row as high as the wrapped text."""
+    if last > first:
+        ws.merge_cells(start_row=row, start_column=first, end_row=row, end_column=last)
+    c = ws.cell(row=row, column=first)
+    c.alignment = WRAP
+    width = sum(ws.column_dimensions[get_column_letter(j)].width or DEFAULT_WIDTH
+                for j in range(first, last + 1))
+    lines = wrapped_lines(c.value or "", width)
+    ws.row_dimensions[row].height = max(ws.row_dimensions[row].height or 0,
+                                        lines * LINE_HEIGHT)
+
+
 def wrap_rows(ws, rows: Iterable[int], columns: Sequence[int]) -> None:
     """Wrap the text of ``columns`` in ``rows`` and fit the row heights to it.
 
@@ -483,7 +501,9 @@ def wrap_rows(ws, rows: Iterable[int], columns: Sequence[int]) -> None:
     for r in rows:
         for c in ws[r]:
             if c.value is not None:
-                c.alignment = WRAP if c.column in columns else TOP
+                keep = c.alignment.horizontal if c.alignment is not None else None
+                c.alignment = Alignment(wrap_text=c.column in columns, vertical="top",
+                                        horizontal=keep)
         fit_row_height(ws, r)
 
 
@@ -509,20 +529,53 @@ def _header_text(text: str) -> str:
     return _cut(xml_text(text), HEADER_TEXT_LIMIT).replace("&", "&&")
 
 
+#: Pixels per character of column width [px at 96 per inch]: a column's width counts the
+#: digits of the default font, 7 px in Calibri 11 pt (Excel), 9.33 px in DejaVu Sans 11 pt, which
+#: LibreOffice prints instead where neither Calibri nor its metric twin Carlito is installed.
+#: The wider one is used, so a sheet set up to print at a readable scale stays readable in both.
+COLUMN_CHARACTER_PIXELS = 9.33
+
+
 def column_points(width: float | None) -> float:
     """Printed width [pt] at 100 % of a column ``width`` characters wide (the default when
-    None): 7 px per character of the default font plus 5 px of padding, at 96 px per inch."""
+    None): :data:`COLUMN_CHARACTER_PIXELS` per character plus 5 px of padding, at 96 px per
+    inch."""
     w = DEFAULT_WIDTH if width is None else float(width)
-    return (7.0 * w + 5.0) * 0.75
+    return (COLUMN_CHARACTER_PIXELS * w + 5.0) * 0.75
+
+
+#: Average width of a character of the 11 pt body font [pt] of mixed text, in the wider of
+#: the fonts it may print in (DejaVu Sans; Calibri is narrower), so a long line is never
+#: thought shorter than it prints.
+CHARACTER_POINTS = 6.4
 
 
 def content_points(ws) -> float:
-    """Printed width [pt] at 100 % of the used columns of ``ws`` and of its charts."""
-    def left_of(col: int) -> float:
-        return sum(column_points(ws.column_dimensions[get_column_letter(j)].width)
-                   for j in range(1, col))
+    """Printed width [pt] at 100 % of the used columns of ``ws``, of its charts and of any
+    text that runs on past its cell into empty cells to the right (an application prints
+    that text too, and widens the printed range for it)."""
+    lefts = [0.0]
+    for j in range(1, ws.max_column + 1):
+        lefts.append(lefts[-1] + column_points(ws.column_dimensions[get_column_letter(j)].width))
 
-    width = left_of(ws.max_column + 1)
+    def left_of(col: int) -> float:
+        if col < len(lefts):
+            return lefts[col - 1]
+        return lefts[-1] + (col - len(lefts)) * column_points(None)
+
+    width = lefts[-1]
+    for row in ws.iter_rows(max_row=min(ws.max_row, 500)):
+        for c in row:
+            if not isinstance(c.value, str) or c.value.startswith("=") or (
+                    c.alignment is not None and c.alignment.wrap_text):
+                continue
+            right = ws._cells.get((c.row, c.column + 1))  # without creating the cell
+            if right is not None and right.value is not None:
+                continue  # cut at the next cell, not printed beyond it
+            size = (c.font.sz if c.font is not None and c.font.sz else BODY_FONT_SIZE)
+            longest = max(len(line) for line in c.value.split("\n"))
+            width = max(width, left_of(c.column) + longest * CHARACTER_POINTS * size
+                        / BODY_FONT_SIZE)
     for chart in getattr(ws, "_charts", ()):
         anchor = chart.anchor if isinstance(chart.anchor, str) else None
         if anchor is not None:
@@ -574,23 +627,55 @@ def _keep_charts_whole(ws, page_height: float, titles: float) -> None:
             page_top, y = top, titles
 
 
+def content_height(ws) -> float:
+    """Printed height [pt] at 100 % of the rows of ``ws`` and of its charts."""
+    height = sum(_row_points(ws, r) for r in range(1, ws.max_row + 1))
+    tops = [0.0]
+    for r in range(1, ws.max_row + 1):
+        tops.append(tops[-1] + _row_points(ws, r))
+    for chart in getattr(ws, "_charts", ()):
+        if isinstance(chart.anchor, str):
+            row = int(re.search(r"\d+", chart.anchor).group(0))
+            top = tops[row - 1] if row - 1 < len(tops) else tops[-1] + (row - len(tops)) * \
+                LINE_HEIGHT
+            height = max(height, top + chart.height * 10.0 * _POINTS_PER_MM)
+    return height
+
+
+def _pages_and_scale(paper: str, orientation: str, width: float, height: float):
+    """(estimated pages, -scale) of a sheet printed in ``orientation``: the key that orders
+    the orientations, fewest pages first, then the larger print."""
+    across = printable_points(paper, orientation)
+    fit = across / max(width, 1.0)
+    scale = min(1.0, fit) if fit * 100.0 >= SMALLEST_SCALE else SMALLEST_SCALE / 100.0
+    wide = 1 if fit * 100.0 >= SMALLEST_SCALE else math.ceil(width * scale / across)
+    long = math.ceil(height * scale / printable_height(paper, orientation))
+    return wide * long, -scale
+
+
 def print_setup(ws, page: PageSetup | None = None, title_rows: int | tuple[int, int] | None
                 = None, title_columns: str | None = None) -> None:
     """Page setup of one sheet: paper, orientation, scale, repeated titles, header and footer.
 
-    Portrait when the columns fit across a portrait page, landscape otherwise; one page wide
-    when that keeps the body font at :data:`SMALLEST_PRINTED_FONT` or more, otherwise at
-    :data:`SMALLEST_SCALE` and as many pages wide as needed (``title_columns``, e.g. ``"A:A"``
-    for the run number, then repeat on each of them). ``title_rows`` (a row, or the first and
-    last row) repeat on every printed page. The page header names the case, the sheet and
-    "page x of y"; the footer the program, its version and the date printed.
+    One page wide when that keeps the body font at :data:`SMALLEST_PRINTED_FONT` or more,
+    otherwise at :data:`SMALLEST_SCALE` and as many pages wide as needed (``title_columns``,
+    e.g. ``"A:A"`` for the run number, then repeat on each of them); portrait when the sheet
+    is one page wide that way and prints on no more pages (nor smaller) than in landscape,
+    landscape otherwise. ``title_rows`` (a
+    row, or the first and last row) repeat on every printed page. The page header names the
+    case, the sheet and "page x of y"; the footer the program, its version and the date
+    printed.
     """
     page = page or PageSetup()
     code, _, _ = PAPER_SIZES[page.paper]
     ws.page_setup.paperSize = code
     width = content_points(ws)
-    portrait = width <= printable_points(page.paper, "portrait")
-    ws.page_setup.orientation = "portrait" if portrait else "landscape"
+    height = content_height(ws)
+    upright = _pages_and_scale(page.paper, "portrait", width, height)
+    across = _pages_and_scale(page.paper, "landscape", width, height)
+    one_wide = printable_points(page.paper, "portrait") / max(width, 1.0) * 100.0 \
+        >= SMALLEST_SCALE
+    ws.page_setup.orientation = "portrait" if one_wide and upright <= across else "landscape"
     fit = printable_points(page.paper, ws.page_setup.orientation) / max(width, 1.0)
     if fit * 100.0 >= SMALLEST_SCALE:
         ws.sheet_properties.pageSetUpPr.fitToPage = True

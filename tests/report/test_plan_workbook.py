@@ -111,11 +111,29 @@ def test_every_run_header_carries_a_unit(written):
 def test_similarity_sheet_lists_groups_and_conflicts(written, plan):
     _, wb = written
     ws = wb["Similarity"]
-    assert [c.value for c in ws[1]][:len(plan.groups.columns)] == list(plan.groups.columns)
+    assert [c.value for c in ws[1] if c.value] == [
+        "group", "symbol", "prototype speed [kn]", "prototype value", "model value", "ratio",
+        "matched", "requested"]  # speeds in the case's unit; no internal key column
     texts = [ws.cell(row=r, column=1).value for r in range(1, ws.max_row + 1)]
-    assert "Unmatched groups at the design speed (conflicts)" in texts
+    assert "Unmatched groups at the design speed: what they cost" in texts
+    names = dict(zip(plan.groups["key"], plan.groups["group"], strict=True))
     for c in plan.conflicts:
-        assert c.group in texts
+        assert names[c.group] in texts
+        assert c.consequence in [ws.cell(row=r, column=2).value for r in range(1, ws.max_row + 1)]
+
+
+def test_conflict_rows_share_the_columns_of_the_groups_table(written, plan):
+    # one layout: the conflict's values sit under "prototype value", "model value", "ratio"
+    _, wb = written
+    ws = wb["Similarity"]
+    heads = [c.value for c in ws[1]]
+    c = plan.conflicts[0]
+    name = plan.groups.loc[plan.groups["key"] == c.group, "group"].iloc[0]
+    (r,) = [r for r in range(len(plan.groups) + 2, ws.max_row + 1)
+            if ws.cell(row=r, column=1).value == name]
+    assert ws.cell(row=r, column=heads.index("prototype value") + 1).value == pytest.approx(
+        c.prototype_value)
+    assert ws.cell(row=r, column=heads.index("ratio") + 1).value == pytest.approx(c.ratio)
 
 
 def test_checks_sheet_shows_margins(written, plan):
@@ -135,7 +153,7 @@ def test_scaling_sheet_has_factors_and_a_live_worked_example(written, plan):
     ws = wb["Scaling"]
     heads = [c.value for c in ws[1]]
     fcol = heads.index("factor (prototype/model)") + 1
-    ex = heads.index("worked example: model value") + 1
+    ex = heads.index("model value (enter)") + 1
     # the length factor is lambda (Froude scale factors, published facts sec. 0)
     assert ws.cell(row=2, column=fcol).value == pytest.approx(25.0)
     formula = ws.cell(row=2, column=ex + 1).value
@@ -145,7 +163,7 @@ def test_scaling_sheet_has_factors_and_a_live_worked_example(written, plan):
 def test_fluids_sheet_lists_both_fluids(written, plan):
     _, wb = written
     ws = wb["Fluids"]
-    assert ws.cell(row=1, column=2).value == f"prototype: {plan.prototype_fluid.fluid}"
+    assert ws.cell(row=1, column=2).value == "prototype: sea water"  # the human label
     rows = {ws.cell(row=r, column=1).value: ws.cell(row=r, column=3).value
             for r in range(2, ws.max_row + 1)}
     assert rows["density [kg/m^3]"] == pytest.approx(float(plan.model_fluid.density_si))
@@ -193,7 +211,7 @@ def test_overwrite_replaces_an_existing_file(plan, tmp_path):
 
 def test_plan_to_excel_uses_the_writer(plan, tmp_path):
     out = plan.to_excel(tmp_path / "via_plan.xlsx")
-    assert openpyxl.load_workbook(out).sheetnames[:2] == ["Overview", "Similarity"]
+    assert openpyxl.load_workbook(out).sheetnames[:2] == ["Overview", "Run sheet"]
 
 
 def test_interrupted_write_leaves_no_partial_file(plan, tmp_path, monkeypatch):
@@ -347,21 +365,27 @@ def test_the_long_caution_on_the_overview_is_more_than_one_line_high(written, pl
     assert ws.row_dimensions[r].height >= 2 * sheets.LINE_HEIGHT
 
 
-def test_conflict_consequences_and_details_wrap_in_rows_of_fitting_height(written, plan):
+def test_conflict_consequences_span_the_table_in_rows_of_fitting_height(written, plan):
     _, wb = written
     ws = wb["Similarity"]
     assert plan.conflicts
+    spans = {m.min_row: m for m in ws.merged_cells.ranges}
     for c in plan.conflicts:
-        (r,) = _rows_of(ws, 1, c.group)
-        for column in (5, 6):
-            if ws.cell(row=r, column=column).value is not None:
-                _assert_fits(ws, r, column)
+        (r,) = [r for r in range(1, ws.max_row + 1)
+                if ws.cell(row=r, column=2).value == c.consequence]
+        m = spans[r]
+        width = sum(ws.column_dimensions[openpyxl.utils.get_column_letter(j)].width or 8.43
+                    for j in range(m.min_col, m.max_col + 1))
+        assert ws.cell(row=r, column=2).alignment.wrap_text
+        assert ws.row_dimensions[r].height >= sheets.wrapped_lines(c.consequence, width) * \
+            sheets.LINE_HEIGHT
 
 
-def test_conflict_rows_align_their_numbers_with_the_first_line_of_text(written, plan):
+def test_conflict_labels_align_with_the_first_line_of_their_text(written, plan):
     _, wb = written
     ws = wb["Similarity"]
-    (r,) = _rows_of(ws, 1, plan.conflicts[0].group)
+    (r,) = [r for r in range(1, ws.max_row + 1)
+            if ws.cell(row=r, column=2).value == plan.conflicts[0].consequence]
     assert ws.cell(row=r, column=1).alignment.vertical == "top"
     assert ws.cell(row=r, column=2).alignment.vertical == "top"
 

@@ -141,11 +141,13 @@ def test_a_sheet_too_wide_for_one_readable_page_prints_at_the_smallest_readable_
     assert ws.print_title_cols == "$A:$A"  # the run number on every page across
 
 
-def test_a_column_of_width_w_prints_7w_plus_5_pixels_wide():
-    # Excel column width: characters of the maximum digit width (7 px in the 11 pt default
-    # font) plus 5 px padding; 96 px per inch, 72 pt per inch (ECMA-376 Part 1, 18.3.1.13
-    # col width; from memory)
-    assert sheets.column_points(10) == pytest.approx((7 * 10 + 5) * 72 / 96)
+def test_a_column_of_width_w_prints_as_w_digits_of_the_wider_font_plus_5_pixels():
+    # Column width: characters of the maximum digit width of the default font plus 5 px
+    # padding; 96 px per inch, 72 pt per inch (ECMA-376 Part 1, 18.3.1.13 col width; from
+    # memory). The digit is 7 px in Calibri 11 pt and 9.33 px in DejaVu Sans 11 pt (advance
+    # 0.636 em of 14.67 px = 9.33 px), the font LibreOffice prints without Calibri/Carlito.
+    assert sheets.column_points(10) == pytest.approx((9.33 * 10 + 5) * 72 / 96)
+    assert sheets.column_points(10) > (7 * 10 + 5) * 72 / 96
 
 
 @pytest.mark.parametrize("paper, width_mm", [("A4", 297.0), ("letter", 279.4)])
